@@ -1,0 +1,380 @@
+package curves
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+)
+
+// PumpPoint is one datasheet point at rated speed. Give Eff (0–1) or Shaft
+// (W); when both are given Eff is used.
+type PumpPoint struct {
+	Flow  Flow    // m³/s, ≥ 0
+	Head  Head    // m, > 0
+	Eff   float64 // pump efficiency 0–1; 0 when not given
+	Shaft Power   // shaft input W at ReferenceDensity; 0 when not given
+}
+
+// PumpOptions choose how a pump curve is fitted and scaled.
+type PumpOptions struct {
+	// HeadDegree is the degree of the head polynomial: 2 (default when 0) or 3.
+	HeadDegree int
+	// SpeedCorrection applies the Sârbu–Borza step-down of efficiency at
+	// reduced speed. Off in the zero value.
+	SpeedCorrection bool
+	// AllowRising accepts a head curve that rises with flow somewhere in the
+	// datasheet range (a "drooping" or humped curve). Off in the zero value.
+	AllowRising bool
+}
+
+// PointError is a problem with one datasheet point; Index counts from 0.
+type PointError struct {
+	Index int
+	Field string // "flow", "head", "efficiency" or "shaft_power"; empty for the whole point
+	Err   error
+}
+
+func (e *PointError) Error() string {
+	if e.Field == "" {
+		return fmt.Sprintf("point %d: %v", e.Index+1, e.Err)
+	}
+	return fmt.Sprintf("point %d %s: %v", e.Index+1, e.Field, e.Err)
+}
+
+func (e *PointError) Unwrap() error { return e.Err }
+
+// Errors of pump point validation.
+var (
+	ErrNegative      = errors.New("must not be negative")
+	ErrNotPositive   = errors.New("must be greater than zero")
+	ErrEffRange      = errors.New("efficiency must be above 0 and at most 100 %")
+	ErrUnsorted      = errors.New("curve points must be listed in order of rising flow")
+	ErrNoEfficiency  = errors.New("point needs an efficiency or a shaft power")
+	ErrShutoffHead   = errors.New("curves: fitted shutoff head is not positive")
+	ErrEfficiencyFit = errors.New("curves: fitted efficiency leaves 0–100 % inside the datasheet range")
+)
+
+// Pump is a fitted pump curve at rated speed, scaled to any speed by the
+// affinity laws. Build one with NewPump.
+type Pump struct {
+	head, eff       Poly
+	HeadFit, EffFit FitStats
+	Points          []PumpPoint // as given, with Eff filled in from Shaft where needed
+	FirstFlow       Flow        // smallest datasheet flow
+	LastFlow        Flow        // largest datasheet flow
+	BEPFlow         Flow        // best efficiency flow at rated speed
+	BEPHead         Head        // head at BEP, rated speed
+	BEPEff          float64     // efficiency at BEP
+	SpeedCorrection bool        // Sârbu–Borza applied below rated speed
+	quadratic       bool        // head polynomial of degree 2: closed-form inverses
+}
+
+// NewPump fits head and efficiency curves to datasheet points (at least 3,
+// sorted by rising flow, no duplicates). The head is fitted as a polynomial
+// in Q of HeadDegree; the efficiency through the origin, η₀(Q) = Σ c_k Q^k for
+// k = 1..2 with three or four points with flow and k = 1..3 with more.
+// Point errors are returned joined, every one at once.
+func NewPump(points []PumpPoint, opt PumpOptions) (*Pump, error) {
+	deg := opt.HeadDegree
+	if deg == 0 {
+		deg = 2
+	}
+	if deg != 2 && deg != 3 {
+		panic("curves: HeadDegree must be 2 or 3")
+	}
+	if len(points) < 3 || len(points) < deg+1 {
+		return nil, fmt.Errorf("%w: %d points, need at least %d", ErrTooFewPoints, len(points), max(3, deg+1))
+	}
+	pts := append([]PumpPoint(nil), points...)
+	var errs []error
+	for i, p := range pts {
+		switch {
+		case !finite(float64(p.Flow)):
+			errs = append(errs, &PointError{i, "flow", ErrNotFinite})
+		case p.Flow < 0:
+			errs = append(errs, &PointError{i, "flow", ErrNegative})
+		}
+		switch {
+		case !finite(float64(p.Head)):
+			errs = append(errs, &PointError{i, "head", ErrNotFinite})
+		case p.Head <= 0:
+			errs = append(errs, &PointError{i, "head", ErrNotPositive})
+		}
+		switch {
+		case !finite(p.Eff) || !finite(float64(p.Shaft)):
+			errs = append(errs, &PointError{i, "efficiency", ErrNotFinite})
+		case p.Eff != 0 && (p.Eff < 0 || p.Eff > 1):
+			errs = append(errs, &PointError{i, "efficiency", ErrEffRange})
+		case p.Eff == 0 && p.Shaft < 0:
+			errs = append(errs, &PointError{i, "shaft_power", ErrNegative})
+		case p.Eff == 0 && p.Shaft == 0 && p.Flow > 0:
+			errs = append(errs, &PointError{i, "", ErrNoEfficiency})
+		case p.Eff == 0 && p.Shaft > 0 && p.Flow > 0:
+			pts[i].Eff = float64(HydraulicPower(ReferenceDensity, p.Flow, p.Head)) / float64(p.Shaft)
+			if pts[i].Eff > 1 {
+				errs = append(errs, &PointError{i, "shaft_power", fmt.Errorf("gives an efficiency of %.1f %% (above 100 %%)", 100*pts[i].Eff)})
+			}
+		}
+		if i > 0 {
+			switch {
+			case p.Flow == pts[i-1].Flow:
+				errs = append(errs, &PointError{i, "flow", ErrDuplicateFlow})
+			case p.Flow < pts[i-1].Flow:
+				errs = append(errs, &PointError{i, "flow", ErrUnsorted})
+			}
+		}
+	}
+	if len(errs) > 0 {
+		return nil, errors.Join(errs...)
+	}
+	q := make([]float64, len(pts))
+	h := make([]float64, len(pts))
+	e := make([]float64, len(pts))
+	npos := 0
+	for i, p := range pts {
+		q[i], h[i], e[i] = float64(p.Flow), float64(p.Head), p.Eff
+		if p.Flow > 0 {
+			npos++
+		}
+	}
+	hp, hst, err := FitPoly(q, h, 0, deg)
+	if err != nil {
+		return nil, fmt.Errorf("head curve: %w", err)
+	}
+	effDeg := 2
+	if npos >= 5 {
+		effDeg = 3
+	}
+	if npos < effDeg {
+		return nil, fmt.Errorf("efficiency curve: %w: %d points with flow", ErrTooFewPoints, npos)
+	}
+	ep, est, err := FitPoly(q, e, 1, effDeg)
+	if err != nil {
+		return nil, fmt.Errorf("efficiency curve: %w", err)
+	}
+	p := &Pump{
+		head: hp, eff: ep, HeadFit: hst, EffFit: est, Points: pts,
+		FirstFlow: pts[0].Flow, LastFlow: pts[len(pts)-1].Flow,
+		SpeedCorrection: opt.SpeedCorrection, quadratic: deg == 2,
+	}
+	if hp.Eval(0) <= 0 {
+		return nil, ErrShutoffHead
+	}
+	if err := p.checkShape(opt.AllowRising); err != nil {
+		return nil, err
+	}
+	p.findBEP()
+	if p.BEPFlow < p.FirstFlow || p.BEPFlow > p.LastFlow ||
+		(p.BEPFlow == p.LastFlow && p.eff.Deriv(float64(p.LastFlow)) > 0) {
+		return nil, fmt.Errorf("%w (fitted BEP at %.4g m³/s, points %.4g–%.4g m³/s)",
+			ErrBEPOutsidePoint, float64(p.BEPFlow), float64(p.FirstFlow), float64(p.LastFlow))
+	}
+	return p, nil
+}
+
+// checkShape rejects a fitted head curve that rises with flow, or any fit
+// that leaves its physical range, inside the datasheet range.
+func (p *Pump) checkShape(allowRising bool) error {
+	a, b := float64(p.FirstFlow), float64(p.LastFlow)
+	const n = 100
+	for i := 0; i <= n; i++ {
+		q := a + (b-a)*float64(i)/n
+		if !allowRising && p.head.Deriv(q)*(b-a) > 1e-6*p.head.Eval(a) {
+			return fmt.Errorf("%w near %.4g m³/s (set allow_rising if the datasheet really shows it)", ErrRisingHead, q)
+		}
+		if p.head.Eval(q) <= 0 {
+			return fmt.Errorf("head curve: %w", ErrNegativeFit)
+		}
+		if q > 0 {
+			if ev := p.eff.Eval(q); ev <= 0 || ev > 1 {
+				return ErrEfficiencyFit
+			}
+		}
+	}
+	return nil
+}
+
+// findBEP locates the maximum of the fitted efficiency on [0, 1.5·LastFlow]
+// by a dense scan refined with golden-section search.
+func (p *Pump) findBEP() {
+	hi := 1.5 * float64(p.LastFlow)
+	const n = 300
+	best, bq := -1.0, 0.0
+	for i := 1; i <= n; i++ {
+		q := hi * float64(i) / n
+		if v := p.eff.Eval(q); v > best {
+			best, bq = v, q
+		}
+	}
+	lo, up := math.Max(0, bq-hi/n), math.Min(hi, bq+hi/n)
+	const g = 0.6180339887498949
+	for it := 0; it < 80; it++ {
+		m1, m2 := up-g*(up-lo), lo+g*(up-lo)
+		if p.eff.Eval(m1) < p.eff.Eval(m2) {
+			lo = m1
+		} else {
+			up = m2
+		}
+	}
+	q := (lo + up) / 2
+	p.BEPFlow, p.BEPEff, p.BEPHead = Flow(q), p.eff.Eval(q), Head(p.head.Eval(q))
+}
+
+// HeadPoly returns the fitted head polynomial at rated speed.
+func (p *Pump) HeadPoly() Poly { return p.head }
+
+// EffPoly returns the fitted efficiency polynomial at rated speed.
+func (p *Pump) EffPoly() Poly { return p.eff }
+
+// ShutoffHead is the fitted head at zero flow and rated speed.
+func (p *Pump) ShutoffHead() Head { return Head(p.head.Eval(0)) }
+
+// Head returns the head at flow q and speed ratio s: s²·H₀(q/s).
+func (p *Pump) Head(q Flow, s float64) Head {
+	if s <= 0 {
+		return 0
+	}
+	return Head(s * s * p.head.Eval(float64(q)/s))
+}
+
+// Eff returns the pump efficiency at flow q and speed ratio s: η₀(q/s),
+// stepped down by Sârbu–Borza below rated speed when enabled:
+// η = 1 − (1 − η₀)(1/s)^0.1.
+func (p *Pump) Eff(q Flow, s float64) float64 {
+	if s <= 0 {
+		return 0
+	}
+	e := p.eff.Eval(float64(q) / s)
+	if p.SpeedCorrection && s < 1 && e > 0 {
+		e = SarbuBorza(e, s)
+	}
+	return e
+}
+
+// SarbuBorza returns the efficiency at speed ratio s of a pump whose
+// efficiency at rated speed is eta: η₂ = 1 − (1 − η₁)(n₁/n₂)^0.1
+// (Sârbu & Borza 1998).
+func SarbuBorza(eta, s float64) float64 {
+	return 1 - (1-eta)*math.Pow(1/s, 0.1)
+}
+
+// ShaftPower returns the shaft input ρ g q H / η at flow q, speed s for a
+// fluid of the given density. At zero flow it is the limit of that ratio.
+func (p *Pump) ShaftPower(q Flow, s, density float64) Power {
+	h := p.Head(q, s)
+	x := float64(q) / s
+	var qOverEta float64
+	if x < 1e-12*p.eff.Scale {
+		// η₀(x) ≈ c₁ x/scale near zero, so q/η → s·scale/c₁.
+		qOverEta = s * p.eff.Scale / p.eff.C[0]
+	} else {
+		qOverEta = float64(q) / p.Eff(q, s)
+	}
+	return Power(density * Gravity * float64(h) * qOverEta)
+}
+
+// SpeedFor returns the speed ratio at which the pump delivers flow q at
+// head h: the root s of s²·H₀(q/s) = h. ok is false where no positive speed
+// does.
+func (p *Pump) SpeedFor(q Flow, h Head) (s float64, ok bool) {
+	if h <= 0 {
+		return 0, false
+	}
+	c := p.head.C
+	x := float64(q) / p.head.Scale
+	if p.quadratic {
+		// a₀ s² + a₁ x s + (a₂ x² − h) = 0
+		a, b, cc := c[0], c[1]*x, c[2]*x*x-float64(h)
+		disc := b*b - 4*a*cc
+		if disc < 0 {
+			return 0, false
+		}
+		s = (-b + math.Sqrt(disc)) / (2 * a)
+		return s, s > 0
+	}
+	// Cubic: f(s) = s²H₀(q/s) − h rises with s where the curve falls; bracket
+	// and bisect with Newton steps.
+	f := func(s float64) float64 { return float64(p.Head(q, s)) - float64(h) }
+	lo, hi := 1e-3, 1.0
+	for f(hi) < 0 {
+		hi *= 2
+		if hi > 64 {
+			return 0, false
+		}
+	}
+	if f(lo) > 0 {
+		return 0, false
+	}
+	return bisect(f, lo, hi), true
+}
+
+// FlowAt returns the flow the pump gives at speed s against head h, on the
+// falling branch of its curve: the largest root of s²·H₀(q/s) = h. ok is
+// false where the head is above what the pump can make at that speed.
+func (p *Pump) FlowAt(s float64, h Head) (q Flow, ok bool) {
+	if s <= 0 {
+		return 0, false
+	}
+	target := float64(h) / (s * s) // H₀(X) = target with X = q/s
+	c := p.head.C
+	if p.quadratic {
+		a, b, cc := c[2], c[1], c[0]-target
+		if a == 0 {
+			if b >= 0 {
+				return 0, false
+			}
+			x := -cc / b
+			return Flow(x * p.head.Scale * s), x >= 0
+		}
+		disc := b*b - 4*a*cc
+		if disc < 0 {
+			return 0, false
+		}
+		x := (-b - math.Sqrt(disc)) / (2 * a) // larger root since a < 0
+		if a > 0 {
+			x = (-b + math.Sqrt(disc)) / (2 * a)
+		}
+		if x < 0 {
+			return 0, false
+		}
+		return Flow(x * p.head.Scale * s), true
+	}
+	// Cubic: find the head peak, then bisect on the falling branch up to 3×
+	// the last datasheet flow.
+	hi := 3 * float64(p.LastFlow)
+	peak, pv := 0.0, p.head.Eval(0)
+	for i := 1; i <= 200; i++ {
+		x := hi * float64(i) / 200
+		if v := p.head.Eval(x); v > pv {
+			peak, pv = x, v
+		}
+	}
+	if target > pv {
+		return 0, false
+	}
+	g := func(x float64) float64 { return target - p.head.Eval(x) }
+	if g(hi) < 0 {
+		return 0, false
+	}
+	return Flow(bisect(g, peak, hi) * s), true
+}
+
+// bisect finds a root of f on [lo, hi] where f(lo) ≤ 0 ≤ f(hi).
+func bisect(f func(float64) float64, lo, hi float64) float64 {
+	for it := 0; it < 200 && hi-lo > 1e-15*math.Max(1, math.Abs(hi)); it++ {
+		m := (lo + hi) / 2
+		if f(m) < 0 {
+			lo = m
+		} else {
+			hi = m
+		}
+	}
+	return (lo + hi) / 2
+}
+
+// SortPoints orders datasheet points by rising flow (for callers that accept
+// unsorted input deliberately).
+func SortPoints(pts []PumpPoint) {
+	sort.SliceStable(pts, func(i, j int) bool { return pts[i].Flow < pts[j].Flow })
+}

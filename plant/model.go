@@ -1,0 +1,77 @@
+package plant
+
+import "wattstage/curves"
+
+// Plant is one pump group as understood from its file: every number in SI.
+type Plant struct {
+	Name   string
+	Source string            // path of the plant file
+	Units  curves.UnitSystem // how the file was read and how reports are written
+	Fluid  curves.Fluid
+	Models []Model // pump models, each with a count of identical units
+
+	System     curves.System // required head vs flow through the load
+	DesignFlow curves.Flow   // m³/s
+	DesignHead curves.Head   // m
+	MinFlow    curves.Flow   // plant minimum flow held by a bypass, m³/s; 0 = none
+
+	Profile  Profile
+	Tariff   Tariff
+	Retrofit Retrofit
+	Sequence *Sequence // the plant's current staging thresholds; nil when not given
+
+	// Defaults lists, in plain words, every value the loader filled in because
+	// the file did not give it (e.g. "pumps[0].motor.full_load_efficiency:
+	// 93.6 % from 10 CFR 431.25 Table 5").
+	Defaults []string
+}
+
+// Model is one pump model of which Count identical units are installed.
+type Model struct {
+	Name       string
+	Count      int
+	RatedSpeed float64 // rpm
+	Pump       *curves.Pump
+	MinSpeed   float64     // fraction of rated speed
+	MaxSpeed   float64     // fraction of rated speed; may exceed 1
+	MinFlow    curves.Flow // minimum continuous stable flow at rated speed, m³/s
+	Runout     curves.Flow // largest allowed flow at rated speed, m³/s
+	Motor      curves.Motor
+	Drive      curves.Drive // curves.FixedSpeed{} for an across-the-line unit
+	BranchK    float64      // per-unit branch loss coefficient, m per (m³/s)²; 0 = none
+}
+
+// Variable reports whether the model's units run on a variable-speed drive.
+func (m *Model) Variable() bool { return m.Drive.Variable() }
+
+// Profile is the load: flow bins with hours, or a trend.
+type Profile struct {
+	Bins []Bin
+}
+
+// Bin is a load-profile bin: a flow through the load and the hours a year at it.
+type Bin struct {
+	Flow  curves.Flow // m³/s through the load
+	Hours float64     // h/yr
+}
+
+// Tariff prices the energy.
+type Tariff struct {
+	EnergyPrice float64 // currency per kWh
+	Currency    string  // e.g. "USD"; display only
+}
+
+// Retrofit prices a drive retrofit.
+type Retrofit struct {
+	DriveCost    float64 // installed cost per drive, currency
+	OtherCost    float64 // other one-off costs, currency
+	LifeYears    float64
+	DiscountRate float64 // fraction per year
+	Escalation   float64 // energy price escalation, fraction per year
+}
+
+// Sequence is a common-speed staging sequence with speed thresholds.
+type Sequence struct {
+	StageUpSpeed   float64 // fraction of rated: add a unit above this
+	StageDownSpeed float64 // fraction of rated: drop a unit below this
+}
