@@ -1,6 +1,10 @@
 package plant
 
-import "wattstage/curves"
+import (
+	"wattstage/curves"
+	"wattstage/econ"
+	"wattstage/profile"
+)
 
 // Plant is one pump group as understood from its file: every number in SI.
 type Plant struct {
@@ -16,8 +20,8 @@ type Plant struct {
 	MinFlow    curves.Flow   // plant minimum flow held by a bypass, m³/s; 0 = none
 
 	Profile  Profile
-	Tariff   Tariff
-	Retrofit Retrofit
+	Tariff   econ.Tariff
+	Retrofit econ.Retrofit
 	Sequence *Sequence // the plant's current staging thresholds; nil when not given
 
 	// Defaults lists, in plain words, every value the loader filled in because
@@ -46,7 +50,8 @@ func (m *Model) Variable() bool { return m.Drive.Variable() }
 
 // Profile is the load: flow bins with hours, or a trend.
 type Profile struct {
-	Bins []Bin
+	Bins  []Bin
+	Trend *profile.TrendSpec // nil when the file gives bins only
 }
 
 // Bin is a load-profile bin: a flow through the load and the hours a year at it.
@@ -55,23 +60,10 @@ type Bin struct {
 	Hours float64     // h/yr
 }
 
-// Tariff prices the energy.
-type Tariff struct {
-	EnergyPrice float64 // currency per kWh
-	Currency    string  // e.g. "USD"; display only
-}
-
-// Retrofit prices a drive retrofit.
-type Retrofit struct {
-	DriveCost    float64 // installed cost per drive, currency
-	OtherCost    float64 // other one-off costs, currency
-	LifeYears    float64
-	DiscountRate float64 // fraction per year
-	Escalation   float64 // energy price escalation, fraction per year
-}
-
-// Sequence is a common-speed staging sequence with speed thresholds.
+// Sequence is the plant's current common-speed staging sequence.
 type Sequence struct {
-	StageUpSpeed   float64 // fraction of rated: add a unit above this
-	StageDownSpeed float64 // fraction of rated: drop a unit below this
+	StageUpSpeed      float64 // fraction of rated: add a unit when the speed stays above this
+	StageDownSpeed    float64 // fraction of rated: drop a unit when the speed stays below this
+	StageUpDelayMin   float64 // minutes the condition must hold; 0 = none
+	StageDownDelayMin float64 // minutes
 }
