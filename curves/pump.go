@@ -178,10 +178,21 @@ func NewPump(points []PumpPoint, opt PumpOptions) (*Pump, error) {
 func (p *Pump) checkShape(allowRising bool) error {
 	a, b := float64(p.FirstFlow), float64(p.LastFlow)
 	const n = 100
+	if !allowRising {
+		for i := 1; i < len(p.Points); i++ {
+			if p.Points[i].Head > p.Points[i-1].Head {
+				return &PointError{Index: i, Field: "head", Err: fmt.Errorf("%w (set allow_rising if the datasheet really shows it)", ErrRisingHead)}
+			}
+		}
+	}
+	h0 := p.head.Eval(0)
 	for i := 0; i <= n; i++ {
 		q := a + (b-a)*float64(i)/n
-		if !allowRising && p.head.Deriv(q)*(b-a) > 1e-6*p.head.Eval(a) {
-			return fmt.Errorf("%w near %.4g m³/s (set allow_rising if the datasheet really shows it)", ErrRisingHead, q)
+		// A quadratic through a curve that is flat near shutoff may rise a
+		// little at low flow; more than 2 % of shutoff head is a real hump.
+		if !allowRising && p.head.Eval(q) > 1.02*h0 {
+			return fmt.Errorf("%w: the fitted curve peaks %.1f %% above shutoff near %.4g m³/s (check the points, or set allow_rising)",
+				ErrRisingHead, 100*(p.head.Eval(q)/h0-1), q)
 		}
 		if p.head.Eval(q) <= 0 {
 			return fmt.Errorf("head curve: %w", ErrNegativeFit)

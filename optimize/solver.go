@@ -1,30 +1,653 @@
 package optimize
 
 import (
+	"fmt"
+	"math"
+
 	"wattstage/curves"
 	"wattstage/plant"
 )
 
 // Options choose how the solver may run the units.
 type Options struct {
-	// CommonSpeed forces one speed signal for every running variable-speed
-	// unit, as many automation systems do. Off in the zero value.
+	// CommonSpeed forces one speed signal (as a fraction of rated speed) for
+	// every running variable-speed unit, as many automation systems do. Off
+	// in the zero value: each model may run at its own speed.
 	CommonSpeed bool
 }
 
-// Solver finds the lowest-power way to serve a load on one plant.
+// Constraint narrows the search of one solve.
+type Constraint struct {
+	Total  int   // exact number of running units; 0 = any
+	Counts []int // exact running units per model; nil = any
+}
+
+// Solver finds the lowest-power way to serve a load on one plant. It is not
+// safe for concurrent use; make one per goroutine.
 type Solver struct {
-	plant *plant.Plant
-	opt   Options
+	plant  *plant.Plant
+	opt    Options
+	units  []*unitModel
+	combos [][]int
+	rho    float64
 }
 
 // New returns a solver for the plant.
 func New(p *plant.Plant, opt Options) *Solver {
-	return &Solver{plant: p, opt: opt}
+	s := &Solver{plant: p, opt: opt, rho: p.Fluid.Density}
+	for i := range p.Models {
+		s.units = append(s.units, newUnitModel(i, &p.Models[i], s.rho))
+	}
+	s.combos = enumerate(p.Models)
+	return s
+}
+
+// enumerate lists every vector of running counts except all-zero.
+func enumerate(ms []plant.Model) [][]int {
+	out := [][]int{}
+	cur := make([]int, len(ms))
+	var rec func(i int)
+	rec = func(i int) {
+		if i == len(ms) {
+			for _, c := range cur {
+				if c > 0 {
+					out = append(out, append([]int(nil), cur...))
+					return
+				}
+			}
+			return
+		}
+		for n := 0; n <= ms[i].Count; n++ {
+			cur[i] = n
+			rec(i + 1)
+		}
+	}
+	rec(0)
+	return out
 }
 
 // Solve returns the lowest-power state that serves the load flow, or an
 // Unmet result with the reason.
 func (s *Solver) Solve(load curves.Flow) Result {
-	panic("optimize: Solve not written yet")
+	return s.SolveWith(load, Constraint{})
 }
+
+// ByCount returns, for each total number of running units from 1 to the
+// installed count, the best state with exactly that many running (Unmet
+// where none serves the load).
+func (s *Solver) ByCount(load curves.Flow) []Result {
+	total := 0
+	for _, m := range s.plant.Models {
+		total += m.Count
+	}
+	out := make([]Result, total)
+	for n := 1; n <= total; n++ {
+		out[n-1] = s.SolveWith(load, Constraint{Total: n})
+	}
+	return out
+}
+
+// state is one candidate: counts, header head, per-model flows.
+type state struct {
+	counts []int
+	h      float64
+	q      []float64 // per-unit flow of each model (equal split)
+	split  []split   // per model: Units of the model run at a different flow
+	power  float64
+}
+
+// split records j units of a model running at flow qb while the others run
+// at the model's q.
+type split struct {
+	j  int
+	qb float64
+}
+
+// side says why an allocation failed.
+type side int
+
+const (
+	fits     side = iota
+	tooMuch       // even at their lowest allowed flows the units move more than needed
+	tooLittle     // even at their highest allowed flows the units move less than needed
+)
+
+// SolveWith is Solve limited by a constraint.
+func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
+	pumped := load
+	if s.plant.MinFlow > pumped {
+		pumped = s.plant.MinFlow
+	}
+	hr := float64(s.plant.System.Required(load))
+	res := Result{LoadFlow: load, PumpedFlow: pumped, BypassFlow: pumped - load,
+		RequiredHead: curves.Head(hr), Counts: make([]int, len(s.units))}
+	if pumped <= 0 {
+		res.Reason = "no flow asked: every unit off"
+		return res
+	}
+	Q := float64(pumped)
+	var best *state
+	var near []*state
+	for _, cnt := range s.combos {
+		if !c.allows(cnt) {
+			continue
+		}
+		st, sd := s.atHead(cnt, Q, hr)
+		if sd == tooMuch {
+			st = s.lowestFeasibleHead(cnt, Q, hr)
+		}
+		if st == nil {
+			continue
+		}
+		near = append(near, st)
+		if best == nil || st.power < best.power {
+			best = st
+		}
+	}
+	if best == nil {
+		return s.unmet(res, Q, hr, c)
+	}
+	// A header head above the control curve can be cheaper where a speed or
+	// flow floor binds (DOMAIN §10): search it for the combos near the best.
+	for _, st := range near {
+		if st.power > best.power*1.02 {
+			continue
+		}
+		if better := s.searchHead(st, Q, hr); better != nil && better.power < best.power {
+			best = better
+		} else if better != nil && better.power < st.power {
+			*st = *better
+		}
+	}
+	if !s.opt.CommonSpeed {
+		s.trySplits(best, Q)
+	}
+	return s.build(res, best)
+}
+
+func (c Constraint) allows(cnt []int) bool {
+	if c.Counts != nil {
+		for i := range cnt {
+			if cnt[i] != c.Counts[i] {
+				return false
+			}
+		}
+		return true
+	}
+	if c.Total > 0 {
+		n := 0
+		for _, v := range cnt {
+			n += v
+		}
+		return n == c.Total
+	}
+	return true
+}
+
+// atHead allocates the pumped flow Q among the running units at header head
+// h: fixed-speed units give what their curves give; the variable ones share
+// the rest at equal marginal power (or at one common speed).
+func (s *Solver) atHead(cnt []int, Q, h float64) (*state, side) {
+	st := &state{counts: cnt, h: h, q: make([]float64, len(cnt)), split: make([]split, len(cnt))}
+	spans := make([]span, len(cnt))
+	qvar := Q
+	var vars []int
+	loSum, hiSum := 0.0, 0.0
+	for i, n := range cnt {
+		if n == 0 {
+			continue
+		}
+		u := s.units[i]
+		sp := u.bounds(h)
+		if !sp.ok {
+			if sp.why == LimitMinFlow && !u.variable {
+				return nil, tooLittle // a fixed unit pushed back below its minimum flow: no higher head helps
+			}
+			return nil, tooLittle
+		}
+		spans[i] = sp
+		if !u.variable {
+			st.q[i] = sp.lo
+			qvar -= float64(n) * sp.lo
+			continue
+		}
+		vars = append(vars, i)
+		loSum += float64(n) * sp.lo
+		hiSum += float64(n) * sp.hi
+	}
+	tol := 1e-9 * Q
+	if len(vars) == 0 {
+		switch {
+		case qvar < -tol:
+			return nil, tooMuch
+		case qvar > tol:
+			return nil, tooLittle
+		}
+		st.power = s.power(st)
+		return st, fits
+	}
+	switch {
+	case loSum > qvar+tol:
+		return nil, tooMuch
+	case hiSum < qvar-tol:
+		return nil, tooLittle
+	}
+	if s.opt.CommonSpeed {
+		if !s.commonSpeed(st, vars, spans, qvar) {
+			return nil, tooLittle
+		}
+	} else {
+		s.equalMarginal(st, vars, spans, qvar)
+	}
+	st.power = s.power(st)
+	if math.IsInf(st.power, 0) || math.IsNaN(st.power) {
+		return nil, tooLittle
+	}
+	return st, fits
+}
+
+// equalMarginal splits qvar among the variable models so that their
+// marginal powers dP/dQ are equal where no bound binds (the optimality
+// condition for a convex separable cost). It takes projected Newton steps on
+// a local quadratic model, with a backtracking line search on the true
+// power.
+func (s *Solver) equalMarginal(st *state, vars []int, spans []span, qvar float64) {
+	n := func(i int) float64 { return float64(st.counts[i]) }
+	if len(vars) == 1 {
+		i := vars[0]
+		st.q[i] = clamp(qvar/n(i), spans[i].lo, spans[i].hi)
+		return
+	}
+	lo, hi := 0.0, 0.0
+	for _, i := range vars {
+		lo += n(i) * spans[i].lo
+		hi += n(i) * spans[i].hi
+	}
+	t := 0.0
+	if hi > lo {
+		t = (qvar - lo) / (hi - lo)
+	}
+	for _, i := range vars {
+		st.q[i] = spans[i].lo + t*(spans[i].hi-spans[i].lo)
+	}
+	cost := func(q []float64) float64 {
+		sum := 0.0
+		for _, i := range vars {
+			sum += n(i) * s.units[i].powerAt(q[i], st.h)
+		}
+		return sum
+	}
+	g := make([]float64, len(st.q))
+	hh := make([]float64, len(st.q))
+	d := make([]float64, len(st.q))
+	trial := make([]float64, len(st.q))
+	cur := cost(st.q)
+	for it := 0; it < 40; it++ {
+		for _, i := range vars {
+			g[i], hh[i] = s.units[i].derivs(st.q[i], st.h, spans[i])
+		}
+		// Find λ with Σ n_i clamp((λ − g_i)/h_i) = 0 (flows stay summed).
+		dOf := func(lam float64) float64 {
+			sum := 0.0
+			for _, i := range vars {
+				d[i] = clamp((lam-g[i])/hh[i], spans[i].lo-st.q[i], spans[i].hi-st.q[i])
+				sum += n(i) * d[i]
+			}
+			return sum
+		}
+		la, lb := math.Inf(1), math.Inf(-1)
+		for _, i := range vars {
+			la = math.Min(la, g[i]+hh[i]*(spans[i].lo-st.q[i]))
+			lb = math.Max(lb, g[i]+hh[i]*(spans[i].hi-st.q[i]))
+		}
+		for k := 0; k < 100; k++ {
+			m := (la + lb) / 2
+			if dOf(m) < 0 {
+				la = m
+			} else {
+				lb = m
+			}
+		}
+		dOf((la + lb) / 2)
+		// Restore the exact sum on the models with room to move.
+		resid := qvar
+		for _, i := range vars {
+			resid -= n(i) * (st.q[i] + d[i])
+		}
+		for _, i := range vars {
+			if resid == 0 {
+				break
+			}
+			room := spans[i].hi - st.q[i] - d[i]
+			if resid < 0 {
+				room = spans[i].lo - st.q[i] - d[i]
+			}
+			step := resid / n(i)
+			if math.Abs(step) > math.Abs(room) {
+				step = room
+			}
+			d[i] += step
+			resid -= n(i) * step
+		}
+		step := 1.0
+		moved := false
+		for ls := 0; ls < 30; ls++ {
+			for _, i := range vars {
+				trial[i] = st.q[i] + step*d[i]
+			}
+			if c := cost(trial); c < cur {
+				cur = c
+				copy(st.q, trial)
+				moved = true
+				break
+			}
+			step /= 2
+		}
+		maxd := 0.0
+		for _, i := range vars {
+			maxd = math.Max(maxd, math.Abs(step*d[i])/math.Max(spans[i].hi, 1e-12))
+		}
+		if !moved || maxd < 1e-11 {
+			break
+		}
+	}
+}
+
+// derivs returns the first and a positive second derivative of one unit's
+// power in flow at header head h, by central differences inside the span.
+func (u *unitModel) derivs(q, h float64, sp span) (float64, float64) {
+	w := sp.hi - sp.lo
+	step := 1e-4 * math.Max(w, 1e-6*sp.hi)
+	a, b := q-step, q+step
+	if a < sp.lo {
+		a, b = sp.lo, sp.lo+2*step
+	}
+	if b > sp.hi {
+		a, b = sp.hi-2*step, sp.hi
+	}
+	if a < 0 {
+		a = 0
+	}
+	m := (a + b) / 2
+	pa, pm, pb := u.powerAt(a, h), u.powerAt(m, h), u.powerAt(b, h)
+	hs := (b - a) / 2
+	d1 := (pb - pa) / (2 * hs)
+	d2 := (pb - 2*pm + pa) / (hs * hs)
+	floor := 1e-6 * math.Abs(d1) / math.Max(sp.hi, 1e-12)
+	if !(d2 > floor) {
+		d2 = math.Max(floor, 1e-30)
+	}
+	return d1, d2
+}
+
+// commonSpeed sets one speed for every running variable unit so that their
+// flows make up qvar, and checks each unit's limits at that speed.
+func (s *Solver) commonSpeed(st *state, vars []int, spans []span, qvar float64) bool {
+	slo, shi := 0.0, math.Inf(1)
+	for _, i := range vars {
+		slo = math.Max(slo, s.units[i].smin)
+		shi = math.Min(shi, s.units[i].smax)
+	}
+	if slo > shi {
+		return false
+	}
+	flows := func(sp float64) float64 {
+		sum := 0.0
+		for _, i := range vars {
+			q, ok := s.units[i].flowAt(sp, st.h)
+			if !ok {
+				q = 0
+			}
+			st.q[i] = q
+			sum += float64(st.counts[i]) * q
+		}
+		return sum
+	}
+	if flows(shi) < qvar*(1-1e-12) {
+		return false
+	}
+	a, b := slo, shi
+	if flows(a) > qvar {
+		// At the common floor the units move too much: the head must rise.
+		return false
+	}
+	for it := 0; it < 100 && b-a > 1e-14; it++ {
+		m := (a + b) / 2
+		if flows(m) < qvar {
+			a = m
+		} else {
+			b = m
+		}
+	}
+	flows((a + b) / 2)
+	// Put the rounding remainder on the first model so that flows sum exactly.
+	sum := 0.0
+	for _, i := range vars {
+		sum += float64(st.counts[i]) * st.q[i]
+	}
+	st.q[vars[0]] += (qvar - sum) / float64(st.counts[vars[0]])
+	for _, i := range vars {
+		tol := 1e-9 * spans[i].hi
+		if st.q[i] < spans[i].lo-tol || st.q[i] > spans[i].hi+tol {
+			return false
+		}
+	}
+	return true
+}
+
+// power returns the total electrical input of a state.
+func (s *Solver) power(st *state) float64 {
+	sum := 0.0
+	for i, n := range st.counts {
+		if n == 0 {
+			continue
+		}
+		u := s.units[i]
+		j := st.split[i].j
+		sum += float64(n-j) * s.unitPower(u, st.q[i], st.h)
+		if j > 0 {
+			sum += float64(j) * s.unitPower(u, st.split[i].qb, st.h)
+		}
+	}
+	return sum
+}
+
+func (s *Solver) unitPower(u *unitModel, q, h float64) float64 {
+	if !u.variable {
+		return float64(u.chain(q, 1).Electrical)
+	}
+	return u.powerAt(q, h)
+}
+
+// headCap is the highest header head any running unit of the combo can
+// make (its shutoff head at maximum speed).
+func (s *Solver) headCap(cnt []int) float64 {
+	hc := math.Inf(1)
+	for i, n := range cnt {
+		if n > 0 {
+			u := s.units[i]
+			hc = math.Min(hc, u.c[0]*u.smax*u.smax)
+		}
+	}
+	return hc
+}
+
+// lowestFeasibleHead finds, for a combo that moves too much flow at the
+// required head, the lowest header head at which it serves the flow.
+func (s *Solver) lowestFeasibleHead(cnt []int, Q, hr float64) *state {
+	hc := s.headCap(cnt)
+	if hc <= hr {
+		return nil
+	}
+	const n = 32
+	prev := hr
+	for k := 1; k <= n; k++ {
+		h := hr + (hc-hr)*float64(k)/n
+		st, sd := s.atHead(cnt, Q, h)
+		if sd == fits {
+			a, b := prev, h
+			for it := 0; it < 60 && b-a > 1e-12*b; it++ {
+				m := (a + b) / 2
+				if t, sd := s.atHead(cnt, Q, m); sd == fits {
+					b, st = m, t
+				} else if sd == tooMuch {
+					a = m
+				} else {
+					break
+				}
+			}
+			return st
+		}
+		if sd == tooLittle {
+			return nil
+		}
+		prev = h
+	}
+	return nil
+}
+
+// searchHead looks for a cheaper header head above st.h for the same combo:
+// a scan of the feasible heads refined by golden section.
+func (s *Solver) searchHead(st *state, Q, hr float64) *state {
+	h0 := st.h
+	up, _ := s.atHead(st.counts, Q, h0*(1+1e-4)+1e-9)
+	if up == nil || up.power >= st.power {
+		return nil
+	}
+	hc := s.headCap(st.counts)
+	const n = 24
+	best := st
+	bi := 0
+	hs := make([]float64, n+1)
+	for k := 0; k <= n; k++ {
+		hs[k] = h0 + (hc-h0)*float64(k)/n
+		if k == 0 {
+			continue
+		}
+		if t, sd := s.atHead(st.counts, Q, hs[k]); sd == fits && t.power < best.power {
+			best, bi = t, k
+		}
+	}
+	a, b := hs[max(bi-1, 0)], hs[min(bi+1, n)]
+	const g = 0.6180339887498949
+	for it := 0; it < 60 && b-a > 1e-10*b; it++ {
+		m1, m2 := b-g*(b-a), a+g*(b-a)
+		t1, _ := s.atHead(st.counts, Q, m1)
+		t2, _ := s.atHead(st.counts, Q, m2)
+		p1, p2 := math.Inf(1), math.Inf(1)
+		if t1 != nil {
+			p1 = t1.power
+		}
+		if t2 != nil {
+			p2 = t2.power
+		}
+		if p1 < p2 {
+			b = m2
+			if t1 != nil && p1 < best.power {
+				best = t1
+			}
+		} else {
+			a = m1
+			if t2 != nil && p2 < best.power {
+				best = t2
+			}
+		}
+	}
+	return best
+}
+
+// trySplits checks whether identical units of one model are cheaper at
+// unequal flows (possible where a flat efficiency curve leaves the drive
+// losses' concavity in charge, DOMAIN §10): j units at qb, the rest at qa,
+// with the model's total held. A split is kept only if it saves power.
+func (s *Solver) trySplits(st *state, Q float64) {
+	for i, n := range st.counts {
+		u := s.units[i]
+		if n < 2 || !u.variable {
+			continue
+		}
+		sp := u.bounds(st.h)
+		total := float64(n) * st.q[i]
+		base := float64(n) * u.powerAt(st.q[i], st.h)
+		bestP, bestJ, bestB := base, 0, 0.0
+		for j := 1; j < n; j++ {
+			// qb in [lo, hi] with qa = (total − j qb)/(n − j) in [lo, hi].
+			bl := math.Max(sp.lo, (total-float64(n-j)*sp.hi)/float64(j))
+			bh := math.Min(sp.hi, (total-float64(n-j)*sp.lo)/float64(j))
+			if bh <= bl {
+				continue
+			}
+			f := func(qb float64) float64 {
+				qa := (total - float64(j)*qb) / float64(n-j)
+				return float64(j)*u.powerAt(qb, st.h) + float64(n-j)*u.powerAt(qa, st.h)
+			}
+			const m = 16
+			bk, bv := 0, math.Inf(1)
+			for k := 0; k <= m; k++ {
+				if v := f(bl + (bh-bl)*float64(k)/m); v < bv {
+					bk, bv = k, v
+				}
+			}
+			a := bl + (bh-bl)*float64(max(bk-1, 0))/m
+			b := bl + (bh-bl)*float64(min(bk+1, m))/m
+			const g = 0.6180339887498949
+			for it := 0; it < 60 && b-a > 1e-12*bh; it++ {
+				m1, m2 := b-g*(b-a), a+g*(b-a)
+				if f(m1) < f(m2) {
+					b = m2
+				} else {
+					a = m1
+				}
+			}
+			qb := (a + b) / 2
+			if v := f(qb); v < bestP*(1-1e-7) {
+				bestP, bestJ, bestB = v, j, qb
+			}
+		}
+		if bestJ > 0 {
+			st.q[i] = (total - float64(bestJ)*bestB) / float64(n-bestJ)
+			st.split[i] = split{j: bestJ, qb: bestB}
+			st.power = s.power(st)
+		}
+	}
+}
+
+// unmet explains why no combination serves the flow.
+func (s *Solver) unmet(res Result, Q, hr float64, c Constraint) Result {
+	res.Status = Unmet
+	u := s.plant.Units
+	// Capacity at the required head with every allowed unit at its highest
+	// allowed flow.
+	capacity := 0.0
+	for _, cnt := range s.combos {
+		if !c.allows(cnt) {
+			continue
+		}
+		sum := 0.0
+		for i, n := range cnt {
+			if n > 0 {
+				if sp := s.units[i].bounds(hr); sp.ok {
+					sum += float64(n) * sp.hi
+				}
+			}
+		}
+		capacity = math.Max(capacity, sum)
+	}
+	if capacity < Q {
+		res.Limit = LimitCapacity
+		res.Shortfall = curves.Flow(Q - capacity)
+		if capacity == 0 {
+			res.Reason = fmt.Sprintf("no unit can make the required head of %s", u.FormatHead(curves.Head(hr)))
+		} else {
+			res.Reason = fmt.Sprintf("the units can deliver at most %s at the required head of %s; short by %s",
+				u.FormatFlow(curves.Flow(capacity)), u.FormatHead(curves.Head(hr)), u.FormatFlow(res.Shortfall))
+		}
+		return res
+	}
+	res.Limit = LimitGap
+	res.Reason = fmt.Sprintf("no combination of running units delivers %s at %s or more without breaking a unit's minimum flow, speed or motor limit",
+		u.FormatFlow(curves.Flow(Q)), u.FormatHead(curves.Head(hr)))
+	return res
+}
+
+func clamp(v, lo, hi float64) float64 { return math.Max(lo, math.Min(hi, v)) }
