@@ -107,9 +107,9 @@ type split struct {
 type side int
 
 const (
-	fits     side = iota
-	tooMuch       // even at their lowest allowed flows the units move more than needed
-	tooLittle     // even at their highest allowed flows the units move less than needed
+	fits      side = iota
+	tooMuch        // even at their lowest allowed flows the units move more than needed
+	tooLittle      // even at their highest allowed flows the units move less than needed
 )
 
 // SolveWith is Solve limited by a constraint.

@@ -67,9 +67,9 @@ type Result struct {
 	Power        curves.Power // total electrical input, W
 	Hydraulic    curves.Power // ρ g Q H of the pumped flow at the header head
 	Status       Status
-	Limit        Limit        // the binding limit of the point, if any
-	Reason       string       // why a point is unmet, or how it is bounded
-	Shortfall    curves.Flow  // flow short of the load for an unmet point
+	Limit        Limit       // the binding limit of the point, if any
+	Reason       string      // why a point is unmet, or how it is bounded
+	Shortfall    curves.Flow // flow short of the load for an unmet point
 	Warnings     []string
 }
 
