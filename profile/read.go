@@ -1,0 +1,695 @@
+package profile
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"slices"
+	"sort"
+	"strconv"
+	"strings"
+	"time"
+	_ "time/tzdata" // zones work on machines without a zoneinfo database
+
+	"wattstage/curves"
+)
+
+// maxPreamble is how many non-blank lines before the header are searched
+// for it (building-automation exports often start with a title block).
+const maxPreamble = 50
+
+// ReadTrendFile opens path and reads it with ReadTrend.
+func ReadTrendFile(spec TrendSpec, path string) (*Trend, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	return ReadTrend(spec, f, path)
+}
+
+// ReadTrend reads a trend log in CSV from r. name is used in errors and
+// reports. It returns a ParseError when the file as a whole is unusable,
+// an error wrapping ErrSpec when the spec is, and otherwise a Trend whose
+// Report accounts for every row.
+func ReadTrend(spec TrendSpec, r io.Reader, name string) (*Trend, error) {
+	p, err := newReader(spec, name)
+	if err != nil {
+		return nil, err
+	}
+	data, err := io.ReadAll(io.LimitReader(r, MaxBytes+1))
+	if err != nil {
+		return nil, p.fileErr(fmt.Errorf("profile: reading: %w", err))
+	}
+	if len(data) > MaxBytes {
+		return nil, p.fileErr(fmt.Errorf("%w: more than %d MiB", ErrTooLarge, MaxBytes>>20))
+	}
+	text, warn, err := decode(data)
+	if err != nil {
+		return nil, p.fileErr(err)
+	}
+	if warn != "" {
+		p.warn("%s", warn)
+	}
+	return p.read(splitLines(text))
+}
+
+type reader struct {
+	spec     TrendSpec
+	name     string
+	loc      *time.Location
+	flowMul  float64 // m³/s per file unit
+	dp       dpUnit
+	density  float64
+	warnings []string
+	rep      Report
+
+	delim              byte
+	header             []string
+	ti, fi, di, pi     int // column indices; -1 when unmapped
+	need               int // fields a row must have
+	zoned              bool
+	hdrLine, hdrStarts int
+}
+
+func newReader(spec TrendSpec, name string) (*reader, error) {
+	p := &reader{spec: spec, name: name, loc: time.UTC, density: spec.Density, di: -1, pi: -1}
+	if spec.TimeZone != "" {
+		loc, err := time.LoadLocation(spec.TimeZone)
+		if err != nil {
+			return nil, specError("unknown time zone %q", spec.TimeZone)
+		}
+		p.loc = loc
+	}
+	if spec.FlowUnit != "" {
+		m, ok := flowUnits[unitKey(spec.FlowUnit)]
+		if !ok {
+			return nil, specError("unknown flow unit %q (want gpm, m3/h or L/s)", spec.FlowUnit)
+		}
+		p.flowMul = m
+	}
+	if spec.DPUnit != "" {
+		u, ok := dpUnits[unitKey(spec.DPUnit)]
+		if !ok {
+			return nil, specError("unknown DP unit %q (want psi, kPa, ft or m)", spec.DPUnit)
+		}
+		p.dp = u
+	}
+	switch {
+	case p.density == 0:
+		p.density = curves.ReferenceDensity
+	case !(p.density > 100 && p.density < 3000):
+		return nil, specError("fluid density %g kg/m³ is not believable", spec.Density)
+	}
+	if math.IsNaN(float64(spec.MaxFlow)) || spec.MaxFlow < 0 {
+		return nil, specError("maximum flow %g m³/s must be ≥ 0", float64(spec.MaxFlow))
+	}
+	if spec.Interval < 0 {
+		return nil, specError("interval %s must be ≥ 0", spec.Interval)
+	}
+	return p, nil
+}
+
+func (p *reader) warn(format string, args ...any) {
+	p.warnings = append(p.warnings, fmt.Sprintf(format, args...))
+}
+
+func (p *reader) fileErr(err error) error { return &ParseError{File: p.name, Err: err} }
+
+func (p *reader) errAt(line, col int, field string, err error) error {
+	return &ParseError{File: p.name, Line: line, Column: col, Field: field, Err: err}
+}
+
+// row is a data row on its way through the checks.
+type row struct {
+	line   int
+	fields []string
+	starts []int
+	drop   Reason // dropping reason; -1 while the row is good
+	t      time.Time
+	flow   float64 // m³/s
+	dp     float64 // m of fluid
+	power  float64 // W
+	hasDP  bool
+	hasPow bool
+	notes  []Reason // keeping reasons
+}
+
+func (p *reader) read(lines []string) (*Trend, error) {
+	p.rep.Lines = len(lines)
+	h, err := p.findHeader(lines)
+	if err != nil {
+		return nil, err
+	}
+	if err := p.mapColumns(lines[h], h+1); err != nil {
+		return nil, err
+	}
+	rows := p.splitRows(lines[h+1:], h+2)
+	if len(rows) == 0 {
+		return nil, p.errAt(h+1, 0, "", fmt.Errorf("%w after the header", ErrNoRows))
+	}
+	if err := p.parseTimes(rows); err != nil {
+		return nil, err
+	}
+	p.parseValues(rows)
+	p.dropAbsurd(rows)
+	kept := p.dedupe(rows)
+	p.tally(rows)
+	if len(kept) == 0 {
+		return nil, p.unusable(rows)
+	}
+	return p.build(kept)
+}
+
+// findHeader returns the index of the header line: the first of the first
+// maxPreamble non-blank lines that names the flow column under some
+// delimiter.
+func (p *reader) findHeader(lines []string) (int, error) {
+	first := -1
+	seen := 0
+	for i, l := range lines {
+		if strings.TrimSpace(l) == "" {
+			continue
+		}
+		if first < 0 {
+			first = i
+		}
+		if seen++; seen > maxPreamble {
+			break
+		}
+		best, bestN := byte(0), 0
+		for _, d := range delimiters {
+			f, _ := splitFields(l, d)
+			if p.flowIndex(f) >= 0 && len(f) > bestN {
+				best, bestN = d, len(f)
+			}
+		}
+		if bestN > 0 {
+			p.delim = best
+			p.rep.HeaderLine = i + 1
+			p.rep.Preamble = seen - 1
+			if seen > 1 {
+				p.warn("skipped %d lines before the header on line %d", seen-1, i+1)
+			}
+			return i, nil
+		}
+	}
+	if first < 0 {
+		return 0, p.fileErr(fmt.Errorf("%w: only blank lines", ErrEmpty))
+	}
+	l := lines[first]
+	d := likelyDelimiter(l)
+	f, _ := splitFields(l, d)
+	want := p.spec.FlowColumn
+	if want == "" {
+		want = `containing "flow"`
+	} else {
+		want = strconv.Quote(want)
+	}
+	switch {
+	case strings.HasPrefix(strings.TrimSpace(l), "<"):
+		return 0, p.errAt(first+1, 1, "", fmt.Errorf("%w: the file looks like HTML or XML, not CSV", ErrNoHeader))
+	case looksLikeData(f):
+		return 0, p.errAt(first+1, 1, "", fmt.Errorf("%w: line starts with data (%s), not a header naming the flow column %s",
+			ErrNoHeader, quoteCut(l), want))
+	}
+	return 0, p.errAt(first+1, 0, p.spec.FlowColumn, fmt.Errorf("%w: no flow column %s in the header (it has: %s)",
+		ErrMissingColumn, want, quoteList(f)))
+}
+
+// likelyDelimiter is the candidate delimiter that splits l into the most
+// fields (',' on a tie).
+func likelyDelimiter(l string) byte {
+	best, bestN := delimiters[0], 0
+	for _, d := range delimiters {
+		if f, _ := splitFields(l, d); len(f) > bestN {
+			best, bestN = d, len(f)
+		}
+	}
+	return best
+}
+
+func looksLikeData(fields []string) bool {
+	for _, f := range fields {
+		if _, ok := number(f, ','); ok {
+			return true
+		}
+		for _, lay := range layouts {
+			if _, err := time.Parse(lay.layout, f); err == nil {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+func normHeader(s string) string { return strings.ToLower(strings.TrimSpace(s)) }
+
+// flowIndex finds the flow column among header fields: by name when the
+// spec gives one, else the only header containing "flow". -1 if none.
+func (p *reader) flowIndex(header []string) int {
+	if p.spec.FlowColumn != "" {
+		return slices.IndexFunc(header, func(h string) bool { return normHeader(h) == normHeader(p.spec.FlowColumn) })
+	}
+	idx := -1
+	for i, h := range header {
+		if strings.Contains(normHeader(h), "flow") {
+			if idx >= 0 {
+				return -1
+			}
+			idx = i
+		}
+	}
+	return idx
+}
+
+func (p *reader) mapColumns(line string, lineNo int) error {
+	header, starts := splitFields(line, p.delim)
+	p.header = header
+	p.rep.Delimiter = p.delim
+	find := func(name string) (int, error) {
+		idx := -1
+		for i, h := range header {
+			if normHeader(h) != normHeader(name) {
+				continue
+			}
+			if idx >= 0 {
+				return -1, p.errAt(lineNo, starts[i], name, fmt.Errorf("%w: %q is column %d and column %d", ErrDupColumn, name, idx+1, i+1))
+			}
+			idx = i
+		}
+		if idx < 0 {
+			return -1, p.errAt(lineNo, 0, name, fmt.Errorf("%w: no column %q in the header (it has: %s)", ErrMissingColumn, name, quoteList(header)))
+		}
+		return idx, nil
+	}
+	var err error
+	if p.spec.FlowColumn == "" {
+		p.fi = p.flowIndex(header)
+		p.spec.FlowColumn = header[p.fi]
+		p.warn("flow column not named; using %q", header[p.fi])
+	}
+	if p.fi, err = find(p.spec.FlowColumn); err != nil {
+		return err
+	}
+	if p.spec.TimeColumn == "" {
+		p.ti = 0
+		if p.ti == p.fi {
+			return p.errAt(lineNo, 0, "", fmt.Errorf("%w: no time column named and the first column is the flow", ErrMissingColumn))
+		}
+		p.spec.TimeColumn = header[0]
+	} else if p.ti, err = find(p.spec.TimeColumn); err != nil {
+		return err
+	}
+	if p.spec.DPColumn != "" {
+		if p.di, err = find(p.spec.DPColumn); err != nil {
+			return err
+		}
+	}
+	if p.spec.PowerColumn != "" {
+		if p.pi, err = find(p.spec.PowerColumn); err != nil {
+			return err
+		}
+	}
+	if p.flowMul == 0 {
+		u := unitFromHeader(header[p.fi], flowUnits)
+		if u == "" {
+			return p.errAt(lineNo, starts[p.fi], header[p.fi], fmt.Errorf("%w: flow unit not given and not in the column name %q", ErrSpec, header[p.fi]))
+		}
+		p.flowMul = flowUnits[u]
+		p.spec.FlowUnit = u
+	}
+	if p.di >= 0 && p.dp == (dpUnit{}) {
+		u := unitFromHeader(header[p.di], dpUnits)
+		if u == "" {
+			return p.errAt(lineNo, starts[p.di], header[p.di], fmt.Errorf("%w: DP unit not given and not in the column name %q", ErrSpec, header[p.di]))
+		}
+		p.dp = dpUnits[u]
+		p.spec.DPUnit = u
+	}
+	p.need = max(p.ti, p.fi, p.di, p.pi) + 1
+	return nil
+}
+
+// splitRows splits the data lines into fields and drops rows whose field
+// count is wrong. first is the line number of lines[0].
+func (p *reader) splitRows(lines []string, first int) []*row {
+	var rows []*row
+	for i, l := range lines {
+		lineNo := first + i
+		if strings.TrimSpace(l) == "" {
+			p.rep.Blank++
+			continue
+		}
+		f, s := splitFields(l, p.delim)
+		if allEmpty(f) {
+			p.rep.Blank++
+			continue
+		}
+		r := &row{line: lineNo, fields: f, starts: s, drop: -1}
+		rows = append(rows, r)
+		switch {
+		case len(f) < p.need:
+			r.drop = TooFewFields
+			for _, d := range delimiters {
+				if d != p.delim {
+					if g, _ := splitFields(l, d); len(g) >= p.need {
+						r.drop = MixedDelimiter
+					}
+				}
+			}
+		case len(f) > len(p.header) && !allEmpty(f[len(p.header):]):
+			r.drop = TooManyFields
+		case f[p.ti] == "":
+			r.drop = BlankTime
+		}
+	}
+	return rows
+}
+
+func allEmpty(f []string) bool {
+	for _, s := range f {
+		if s != "" {
+			return false
+		}
+	}
+	return true
+}
+
+// parseValues converts the flow, DP and power cells of rows still good.
+func (p *reader) parseValues(rows []*row) {
+	for _, r := range rows {
+		if r.drop >= 0 {
+			continue
+		}
+		cell := r.fields[p.fi]
+		v, ok := number(cell, p.delim)
+		switch {
+		case cell == "":
+			r.drop = BlankFlow
+			continue
+		case !ok:
+			r.drop = BadFlow
+			continue
+		case v < 0:
+			r.drop = NegativeFlow
+			continue
+		}
+		r.flow = v * p.flowMul
+		if p.di >= 0 && r.fields[p.di] != "" {
+			v, ok := number(r.fields[p.di], p.delim)
+			switch {
+			case !ok:
+				r.notes = append(r.notes, BadDP)
+			case v < 0:
+				r.notes = append(r.notes, NegativeDP)
+			default:
+				r.dp, r.hasDP = float64(p.dp.head(v, p.density)), true
+			}
+		}
+		if p.pi >= 0 && r.fields[p.pi] != "" {
+			v, ok := number(r.fields[p.pi], p.delim)
+			switch {
+			case !ok:
+				r.notes = append(r.notes, BadPower)
+			case v < 0:
+				r.notes = append(r.notes, NegativePow)
+			default:
+				r.power, r.hasPow = v*curves.KW, true
+			}
+		}
+	}
+}
+
+// number parses a numeric cell: a plain decimal, a decimal comma when the
+// delimiter is not a comma ("12,5"), or thousands separators in a quoted
+// cell ("1,234.5"). NaN, infinities and hex floats are not numbers here.
+func number(s string, delim byte) (float64, bool) {
+	if s == "" {
+		return 0, false
+	}
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		if !(c >= '0' && c <= '9' || c == '.' || c == ',' || c == '-' || c == '+' || c == 'e' || c == 'E') {
+			return 0, false
+		}
+	}
+	if strings.Contains(s, ",") {
+		switch {
+		case delim != ',' && strings.Count(s, ",") == 1 && !strings.Contains(s, "."):
+			s = strings.Replace(s, ",", ".", 1)
+		case thousands(s):
+			s = strings.ReplaceAll(s, ",", "")
+		default:
+			return 0, false
+		}
+	}
+	v, err := strconv.ParseFloat(s, 64)
+	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
+		return 0, false
+	}
+	return v, true
+}
+
+// thousands reports whether s is digits grouped by commas in threes, with
+// an optional sign and decimal part: "1,234" or "-12,345.6".
+func thousands(s string) bool {
+	s = strings.TrimLeft(s, "+-")
+	if i := strings.IndexByte(s, '.'); i >= 0 {
+		s = s[:i]
+	}
+	groups := strings.Split(s, ",")
+	if len(groups[0]) < 1 || len(groups[0]) > 3 {
+		return false
+	}
+	for _, g := range groups {
+		for i := 0; i < len(g); i++ {
+			if g[i] < '0' || g[i] > '9' {
+				return false
+			}
+		}
+	}
+	for _, g := range groups[1:] {
+		if len(g) != 3 {
+			return false
+		}
+	}
+	return true
+}
+
+// dropAbsurd drops flows above the believable maximum: the spec's, or by
+// default 3 × the 99th percentile (nearest rank) of the positive flows, a
+// rule of our own that leaves any real load profile alone and catches
+// sensor spikes and unit slips (flows many times the plant's usual peak).
+func (p *reader) dropAbsurd(rows []*row) {
+	limit := float64(p.spec.MaxFlow)
+	if limit == 0 {
+		var pos []float64
+		for _, r := range rows {
+			if r.drop < 0 && r.flow > 0 {
+				pos = append(pos, r.flow)
+			}
+		}
+		if len(pos) == 0 {
+			return
+		}
+		sort.Float64s(pos)
+		rank := int(math.Ceil(0.99*float64(len(pos)))) - 1
+		limit = 3 * pos[rank]
+	}
+	p.rep.FlowLimit = curves.Flow(limit)
+	for _, r := range rows {
+		if r.drop < 0 && r.flow > limit {
+			r.drop = AbsurdFlow
+		}
+	}
+}
+
+// dedupe sorts the good rows by time, drops later rows at an instant already
+// taken, and notes the kept rows that came out of order.
+func (p *reader) dedupe(rows []*row) []*row {
+	var good []*row
+	for _, r := range rows {
+		if r.drop < 0 {
+			good = append(good, r)
+		}
+	}
+	sorted := slices.Clone(good)
+	slices.SortStableFunc(sorted, func(a, b *row) int { return a.t.Compare(b.t) })
+	kept := sorted[:0:0]
+	for _, r := range sorted {
+		if n := len(kept); n > 0 && kept[n-1].t.Equal(r.t) {
+			r.drop = Duplicate
+			continue
+		}
+		kept = append(kept, r)
+	}
+	var latest time.Time
+	for i, r := range good {
+		if r.drop >= 0 {
+			continue
+		}
+		if i > 0 && r.t.Before(latest) {
+			r.notes = append(r.notes, OutOfOrder)
+		}
+		if r.t.After(latest) || latest.IsZero() {
+			latest = r.t
+		}
+	}
+	return kept
+}
+
+// tally fills the report's counts from the rows' reasons.
+func (p *reader) tally(rows []*row) {
+	var issues [numReasons]Issue
+	add := func(reason Reason, line int) {
+		is := &issues[reason]
+		is.Reason = reason
+		is.Count++
+		if len(is.Lines) < MaxLines {
+			is.Lines = append(is.Lines, line)
+		}
+	}
+	for _, r := range rows {
+		p.rep.Rows++
+		if r.drop >= 0 {
+			p.rep.Dropped++
+			add(r.drop, r.line)
+			continue
+		}
+		p.rep.Kept++
+		if r.hasDP {
+			p.rep.WithDP++
+		}
+		if r.hasPow {
+			p.rep.WithPower++
+		}
+		for _, n := range r.notes {
+			add(n, r.line)
+		}
+	}
+	for _, is := range issues {
+		if is.Count > 0 {
+			p.rep.Issues = append(p.rep.Issues, is)
+		}
+	}
+}
+
+// unusable builds the error for a file whose rows were all dropped.
+func (p *reader) unusable(rows []*row) error {
+	r0 := rows[0]
+	if n := p.rep.Count(MixedDelimiter); 2*n >= p.rep.Rows {
+		return p.errAt(r0.line, 0, "", fmt.Errorf("%w: the header splits on %s but %d of %d rows do not (%s)",
+			ErrMixedDelims, delimName(p.delim), n, p.rep.Rows, lineList(p.rep.Issues[slices.IndexFunc(p.rep.Issues, func(is Issue) bool { return is.Reason == MixedDelimiter })])))
+	}
+	return p.errAt(r0.line, 0, "", fmt.Errorf("%w: %s", ErrNoUsableRows, p.rep.Summary()))
+}
+
+func delimName(d byte) string {
+	switch d {
+	case '\t':
+		return "tabs"
+	case ',':
+		return "commas"
+	case ';':
+		return "semicolons"
+	case '|':
+		return "bars"
+	}
+	return strconv.QuoteRune(rune(d))
+}
+
+// build turns the kept rows (in time order) into the Trend: the interval,
+// each point's weight, the gaps and the coverage.
+func (p *reader) build(kept []*row) (*Trend, error) {
+	iv := p.spec.Interval
+	if iv == 0 {
+		if len(kept) < 2 {
+			return nil, p.errAt(kept[0].line, 0, "", fmt.Errorf("%w: only one usable row; give the trend's interval", ErrInterval))
+		}
+		steps := make([]time.Duration, len(kept)-1)
+		for i := range steps {
+			steps[i] = kept[i+1].t.Sub(kept[i].t)
+		}
+		slices.Sort(steps)
+		iv = steps[len(steps)/2]
+		if len(steps)%2 == 0 {
+			iv = (steps[len(steps)/2-1] + steps[len(steps)/2]) / 2
+		}
+		regular := 0
+		for _, s := range steps {
+			if math.Abs(float64(s-iv)) <= 0.01*float64(iv) {
+				regular++
+			}
+		}
+		if 2*regular < len(steps) {
+			p.warn("logging steps are irregular: %d of %d equal the median step %s", regular, len(steps), iv)
+		}
+	}
+	tr := &Trend{Name: p.name, Spec: p.spec, Location: p.loc, Interval: iv, Points: make([]Point, len(kept))}
+	ivh := iv.Hours()
+	for i, r := range kept {
+		pt := Point{Time: r.t.In(p.loc), Flow: curves.Flow(r.flow), Line: r.line, Hours: ivh,
+			DP: curves.Head(r.dp), HasDP: r.hasDP, Power: curves.Power(r.power), HasPower: r.hasPow}
+		if i+1 < len(kept) {
+			step := kept[i+1].t.Sub(r.t)
+			pt.Hours = min(step, iv).Hours()
+			if step > iv+iv/2 {
+				p.addGap(r.t.Add(iv).In(p.loc), kept[i+1].t.In(p.loc))
+			}
+		}
+		tr.Hours += pt.Hours
+		tr.Points[i] = pt
+	}
+	tr.Start = tr.Points[0].Time
+	tr.End = kept[len(kept)-1].t.Add(iv).In(p.loc)
+	tr.Span = tr.End.Sub(tr.Start).Hours()
+	p.finalWarnings(tr)
+	tr.Report = p.rep
+	tr.Warnings = p.warnings
+	return tr, nil
+}
+
+func (p *reader) addGap(from, to time.Time) {
+	g := Gap{From: from, To: to, Missing: to.Sub(from)}
+	p.rep.Gaps++
+	p.rep.MissingHours += g.Missing.Hours()
+	p.rep.LongestGap = max(p.rep.LongestGap, g.Missing)
+	if len(p.rep.FirstGaps) < MaxGaps {
+		p.rep.FirstGaps = append(p.rep.FirstGaps, g)
+	}
+}
+
+func (p *reader) finalWarnings(tr *Trend) {
+	if p.rep.Dropped > 0 {
+		p.warn("%d of %d rows dropped: %s", p.rep.Dropped, p.rep.Rows, p.rep.Summary())
+	}
+	if n := p.rep.Count(Duplicate); n > 0 && p.spec.TimeZone == "" && !p.zoned {
+		p.warn("%d duplicate stamps: if the log is local time with daylight saving, give the trend's time zone", n)
+	}
+	if c := tr.Coverage(); c < 0.9 {
+		p.warn("rows cover %.1f %% of the span (%.1f of %.1f h)", 100*c, tr.Hours, tr.Span)
+	}
+}
+
+func quoteCut(s string) string {
+	const n = 40
+	if r := []rune(s); len(r) > n {
+		s = string(r[:n]) + "…"
+	}
+	return strconv.Quote(s)
+}
+
+func quoteList(f []string) string {
+	const n = 12
+	q := make([]string, 0, min(len(f), n))
+	for i, s := range f {
+		if i == n {
+			q = append(q, fmt.Sprintf("… %d more", len(f)-n))
+			break
+		}
+		q = append(q, quoteCut(s))
+	}
+	return strings.Join(q, ", ")
+}

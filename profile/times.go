@@ -1,0 +1,200 @@
+package profile
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+	"time"
+)
+
+// layout is a timestamp layout tried when the spec gives none.
+type layout struct {
+	layout string
+	zoned  bool   // the stamp carries its UTC offset
+	twin   string // the same layout with day and month swapped, if any
+}
+
+// layouts are tried in this order; the one that parses the most stamps of
+// the file wins, the earlier on a tie (so "01/02/2025" reads as month/day,
+// with a warning when the file cannot tell).
+var layouts = []layout{
+	{layout: time.RFC3339, zoned: true},
+	{layout: "2006-01-02 15:04:05Z07:00", zoned: true},
+	{layout: "2006-01-02 15:04:05 -0700", zoned: true},
+	{layout: "2006-01-02T15:04:05"},
+	{layout: "2006-01-02T15:04"},
+	{layout: "2006-01-02 15:04:05"},
+	{layout: "2006-01-02 15:04"},
+	{layout: "2006/01/02 15:04:05"},
+	{layout: "2006/01/02 15:04"},
+	{layout: "1/2/2006 15:04:05", twin: "2/1/2006 15:04:05"},
+	{layout: "1/2/2006 15:04", twin: "2/1/2006 15:04"},
+	{layout: "1/2/2006 3:04:05 PM", twin: "2/1/2006 3:04:05 PM"},
+	{layout: "1/2/2006 3:04 PM", twin: "2/1/2006 3:04 PM"},
+	{layout: "2/1/2006 15:04:05", twin: "1/2/2006 15:04:05"},
+	{layout: "2/1/2006 15:04", twin: "1/2/2006 15:04"},
+	{layout: "2/1/2006 3:04:05 PM", twin: "1/2/2006 3:04:05 PM"},
+	{layout: "2/1/2006 3:04 PM", twin: "1/2/2006 3:04 PM"},
+	{layout: "02.01.2006 15:04:05"},
+	{layout: "02.01.2006 15:04"},
+	{layout: "2-Jan-2006 15:04:05"},
+	{layout: "2-Jan-2006 15:04"},
+	{layout: "2006-01-02"},
+}
+
+// unixLayout is the TimeFormat for stamps in seconds since 1970-01-01 UTC.
+const unixLayout = "unix"
+
+func isZoned(l string) bool {
+	return l == unixLayout || strings.Contains(l, "Z07") || strings.Contains(l, "-07")
+}
+
+func parseStamp(layout, s string) (time.Time, error) {
+	if layout == unixLayout {
+		v, err := strconv.ParseFloat(s, 64)
+		if err != nil || !(v > -1e12 && v < 1e12) {
+			return time.Time{}, fmt.Errorf("not seconds since 1970")
+		}
+		sec := int64(v)
+		return time.Unix(sec, int64((v-float64(sec))*1e9)).UTC(), nil
+	}
+	return time.Parse(layout, s)
+}
+
+// chooseLayout picks the timestamp layout: the spec's, or the candidate
+// that parses the most stamps.
+func (p *reader) chooseLayout(rows []*row) string {
+	if p.spec.TimeFormat != "" {
+		return p.spec.TimeFormat
+	}
+	counts := make([]int, len(layouts))
+	for _, r := range rows {
+		if r.drop >= 0 {
+			continue
+		}
+		s := r.fields[p.ti]
+		for i, l := range layouts {
+			if _, err := time.Parse(l.layout, s); err == nil {
+				counts[i]++
+			}
+		}
+	}
+	best := 0
+	for i, c := range counts {
+		if c > counts[best] {
+			best = i
+		}
+	}
+	if counts[best] == 0 {
+		return ""
+	}
+	if tw := layouts[best].twin; tw != "" {
+		for i, l := range layouts {
+			if l.layout == tw && counts[i] == counts[best] {
+				p.warn("dates such as %q read as %s; give the trend's time format if that is wrong",
+					firstStamp(rows, p.ti), dayOrder(layouts[best].layout))
+			}
+		}
+	}
+	return layouts[best].layout
+}
+
+func dayOrder(l string) string {
+	if strings.HasPrefix(l, "1/2") {
+		return "month/day"
+	}
+	return "day/month"
+}
+
+func firstStamp(rows []*row, ti int) string {
+	for _, r := range rows {
+		if r.drop < 0 {
+			return r.fields[ti]
+		}
+	}
+	return ""
+}
+
+// parseTimes gives every good row its instant. Stamps with an offset are
+// exact instants. Stamps without one are wall-clock times in the spec's
+// zone: a wall time skipped by a spring-forward change drops the row; a wall
+// time that occurs twice (fall back) is read as the earlier instant the
+// first time it appears in the file and as the later one the second time.
+func (p *reader) parseTimes(rows []*row) error {
+	lay := p.chooseLayout(rows)
+	if lay == "" {
+		r := rows[0]
+		for _, q := range rows {
+			if q.drop < 0 {
+				r = q
+				break
+			}
+		}
+		if r.drop < 0 {
+			return p.errAt(r.line, r.starts[p.ti], p.spec.TimeColumn, fmt.Errorf("%w: %s in column %q; give the trend's time format",
+				ErrTimeFormat, quoteCut(r.fields[p.ti]), p.spec.TimeColumn))
+		}
+		return nil // every row already dropped for another reason
+	}
+	p.rep.Layout = lay
+	p.zoned = isZoned(lay)
+	seen := map[time.Time]int{}
+	for _, r := range rows {
+		if r.drop >= 0 {
+			continue
+		}
+		t, err := parseStamp(lay, r.fields[p.ti])
+		if err != nil {
+			r.drop = BadTime
+			continue
+		}
+		if p.zoned || p.loc == time.UTC {
+			r.t = t
+			continue
+		}
+		early, late, ok := localInstants(t, p.loc)
+		if !ok {
+			r.drop = MissingLocal
+			continue
+		}
+		r.t = early
+		if !early.Equal(late) {
+			k := seen[t]
+			seen[t]++
+			if k >= 1 {
+				r.t = late
+			}
+			if k == 1 {
+				r.notes = append(r.notes, RepeatedHour)
+			}
+		}
+	}
+	return nil
+}
+
+// localInstants returns the earliest and latest instants whose wall clock in
+// loc reads as w's (UTC) fields; ok is false when no instant does (a time
+// skipped by daylight saving). Transitions of up to two hours are handled.
+func localInstants(w time.Time, loc *time.Location) (early, late time.Time, ok bool) {
+	t := time.Date(w.Year(), w.Month(), w.Day(), w.Hour(), w.Minute(), w.Second(), w.Nanosecond(), loc)
+	same := func(u time.Time) bool {
+		y, mo, d := u.Date()
+		h, mi, s := u.Clock()
+		return y == w.Year() && mo == w.Month() && d == w.Day() && h == w.Hour() && mi == w.Minute() && s == w.Second() && u.Nanosecond() == w.Nanosecond()
+	}
+	if !same(t) {
+		return time.Time{}, time.Time{}, false
+	}
+	early, late = t, t
+	for _, d := range []time.Duration{-2 * time.Hour, -time.Hour, -30 * time.Minute, 30 * time.Minute, time.Hour, 2 * time.Hour} {
+		if u := t.Add(d); same(u) {
+			if u.Before(early) {
+				early = u
+			}
+			if u.After(late) {
+				late = u
+			}
+		}
+	}
+	return early, late, true
+}
