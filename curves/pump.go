@@ -68,6 +68,7 @@ type Pump struct {
 	BEPEff          float64     // efficiency at BEP
 	SpeedCorrection bool        // Sârbu–Borza applied below rated speed
 	quadratic       bool        // head polynomial of degree 2: closed-form inverses
+	fallLo, fallHi  float64     // falling branch of the cubic head fit at rated speed, m³/s
 }
 
 // NewPump fits head and efficiency curves to datasheet points (at least 3,
@@ -165,6 +166,7 @@ func NewPump(points []PumpPoint, opt PumpOptions) (*Pump, error) {
 		return nil, err
 	}
 	p.findBEP()
+	p.fallLo, p.fallHi = p.fallingBranch()
 	if p.BEPFlow < p.FirstFlow || p.BEPFlow > p.LastFlow ||
 		(p.BEPFlow == p.LastFlow && p.eff.Deriv(float64(p.LastFlow)) > 0) {
 		return nil, fmt.Errorf("%w (fitted BEP at %.4g m³/s, points %.4g–%.4g m³/s)",
@@ -304,20 +306,27 @@ func (p *Pump) SpeedFor(q Flow, h Head) (s float64, ok bool) {
 		s = (-b + math.Sqrt(disc)) / (2 * a)
 		return s, s > 0
 	}
-	// Cubic: f(s) = s²H₀(q/s) − h rises with s where the curve falls; bracket
-	// and bisect with Newton steps.
-	f := func(s float64) float64 { return float64(p.Head(q, s)) - float64(h) }
-	lo, hi := 1e-3, 1.0
-	for f(hi) < 0 {
-		hi *= 2
-		if hi > 64 {
+	// Cubic: in X = q/s, g(X) = (q/X)²·H₀(X) falls with X where the curve
+	// falls, so the root on the falling branch is unique. A bracket in s
+	// alone fails when c₃ > 0, since s²H₀(q/s) → +∞ as s → 0.
+	if q <= 0 {
+		return math.Sqrt(float64(h) / c[0]), true
+	}
+	g := func(x float64) float64 { return float64(h) - float64(q)*float64(q)/(x*x)*p.head.Eval(x) }
+	const maxSpeed = 64
+	lo := math.Max(p.fallLo, float64(q)/maxSpeed)
+	if g(lo) > 0 {
+		// Above the head the pump makes at the top of its falling branch:
+		// the point lies left of a hump, as with a quadratic fit.
+		if lo == float64(q)/maxSpeed || g(float64(q)/maxSpeed) > 0 {
 			return 0, false
 		}
+		return float64(q) / bisect(g, float64(q)/maxSpeed, lo), true
 	}
-	if f(lo) > 0 {
-		return 0, false
+	if g(p.fallHi) < 0 {
+		return 0, false // past the end of the falling branch
 	}
-	return bisect(f, lo, hi), true
+	return float64(q) / bisect(g, lo, p.fallHi), true
 }
 
 // FlowAt returns the flow the pump gives at speed s against head h, on the
@@ -351,24 +360,46 @@ func (p *Pump) FlowAt(s float64, h Head) (q Flow, ok bool) {
 		}
 		return Flow(x * p.head.Scale * s), true
 	}
-	// Cubic: find the head peak, then bisect on the falling branch up to 3×
-	// the last datasheet flow.
-	hi := 3 * float64(p.LastFlow)
+	// Cubic: bisect on the falling branch.
+	if target > p.head.Eval(p.fallLo) || target < p.head.Eval(p.fallHi) {
+		return 0, false
+	}
+	g := func(x float64) float64 { return target - p.head.Eval(x) }
+	return Flow(bisect(g, p.fallLo, p.fallHi) * s), true
+}
+
+// fallingBranch returns the rated-speed flows between which the fitted head
+// falls: from the highest head within the datasheet range (zero flow for a
+// curve that never rises) to the first minimum of the fit, or 3× the last
+// datasheet flow, whichever comes first. Past the last point the fit is an
+// extrapolation; a cubic with c₃ > 0 turns up again there.
+func (p *Pump) fallingBranch() (lo, hi float64) {
+	last := float64(p.LastFlow)
+	const n = 400
 	peak, pv := 0.0, p.head.Eval(0)
-	for i := 1; i <= 200; i++ {
-		x := hi * float64(i) / 200
+	for i := 1; i <= n; i++ {
+		x := last * float64(i) / n
 		if v := p.head.Eval(x); v > pv {
 			peak, pv = x, v
 		}
 	}
-	if target > pv {
-		return 0, false
+	if peak > 0 {
+		// Refine the interior maximum: H₀' changes sign from + to −.
+		a, b := math.Max(0, peak-last/n), math.Min(last, peak+last/n)
+		if p.head.Deriv(a) > 0 && p.head.Deriv(b) < 0 {
+			peak = bisect(func(x float64) float64 { return -p.head.Deriv(x) }, a, b)
+		}
 	}
-	g := func(x float64) float64 { return target - p.head.Eval(x) }
-	if g(hi) < 0 {
-		return 0, false
+	end := 3 * last
+	step := (end - peak) / n
+	for i := 1; i <= n; i++ {
+		x := peak + step*float64(i)
+		if p.head.Deriv(x) >= 0 {
+			end = bisect(p.head.Deriv, x-step, x)
+			break
+		}
 	}
-	return Flow(bisect(g, peak, hi) * s), true
+	return peak, end
 }
 
 // bisect finds a root of f on [lo, hi] where f(lo) ≤ 0 ≤ f(hi).
