@@ -1,0 +1,49 @@
+package optimize
+
+import (
+	"math"
+
+	"wattstage/curves"
+)
+
+// Calibration compares predicted with measured pump power over a trend.
+type Calibration struct {
+	Strategy string  // the strategy whose predictions are compared
+	N        int     // steps with both a prediction and a measurement
+	MeanKW   float64 // mean measured power
+	MeanErr  float64 // mean of predicted − measured, kW
+	NMBE     float64 // normalised mean bias error, fraction of MeanKW
+	CVRMSE   float64 // coefficient of variation of the RMSE, fraction of MeanKW
+	MaxAbs   float64 // largest |predicted − measured|, kW
+}
+
+// Calibrate compares a run's predicted input with the measured kW of each
+// step. NMBE and CV(RMSE) follow ASHRAE Guideline 14 (from memory: with
+// n − 1 degrees of freedom, as fractions of the mean measured value).
+func Calibrate(run Run, steps []Step) Calibration {
+	c := Calibration{Strategy: run.Name}
+	var sumM, sumE, sumE2 float64
+	for i, st := range steps {
+		if math.IsNaN(st.MeasuredKW) || run.Points[i].Status != Served {
+			continue
+		}
+		pred := float64(run.Points[i].Power) / curves.KW
+		e := pred - st.MeasuredKW
+		c.N++
+		sumM += st.MeasuredKW
+		sumE += e
+		sumE2 += e * e
+		c.MaxAbs = math.Max(c.MaxAbs, math.Abs(e))
+	}
+	if c.N < 2 {
+		return c
+	}
+	n := float64(c.N)
+	c.MeanKW = sumM / n
+	c.MeanErr = sumE / n
+	if c.MeanKW > 0 {
+		c.NMBE = sumE / ((n - 1) * c.MeanKW)
+		c.CVRMSE = math.Sqrt(sumE2/(n-1)) / c.MeanKW
+	}
+	return c
+}

@@ -1,0 +1,351 @@
+package optimize
+
+import (
+	"math"
+	"time"
+
+	"wattstage/curves"
+	"wattstage/plant"
+)
+
+// Step is one interval of a trend or one bin of a load profile.
+type Step struct {
+	Time       time.Time   // start of the interval; zero for a bin
+	Load       curves.Flow // flow through the load, m³/s
+	Hours      float64     // hours the step stands for
+	MeasuredKW float64     // measured total pump power, kW; NaN when not logged
+}
+
+// Timed reports whether the step comes from a time-stamped trend.
+func (s Step) Timed() bool { return !s.Time.IsZero() }
+
+// Strategy is one named way of running the plant over a load profile.
+type Strategy interface {
+	// Name is the strategy's label in reports.
+	Name() string
+	// Run evaluates the steps, in order (time order for a trend).
+	Run(steps []Step) Run
+}
+
+// Run is a strategy's result over a profile.
+type Run struct {
+	Name    string
+	Points  []Result // one per step
+	Changes int      // stage changes (counted in time order; 0 for bins)
+	Drives  int      // units on variable-speed drives in this strategy
+	Note    string   // how the strategy runs the plant, in plain words
+}
+
+var (
+	_ Strategy = (*Lowest)(nil)
+	_ Strategy = (*Staged)(nil)
+	_ Strategy = (*Throttled)(nil)
+	_ Strategy = (*ConstantBypass)(nil)
+)
+
+// Lowest runs the lowest-power staging at every step.
+type Lowest struct {
+	Label  string
+	Plant  *plant.Plant
+	Solver *Solver
+}
+
+// NewLowest returns the optimiser as a strategy.
+func NewLowest(label string, p *plant.Plant, opt Options) *Lowest {
+	return &Lowest{Label: label, Plant: p, Solver: New(p, opt)}
+}
+
+func (l *Lowest) Name() string { return l.Label }
+func (l *Lowest) Run(steps []Step) Run {
+	r := Run{Name: l.Label, Drives: drives(l.Plant),
+		Note: "the lowest-power count of running units and their speeds at every step"}
+	prev := -1
+	for _, st := range steps {
+		res := l.Solver.Solve(st.Load)
+		r.Points = append(r.Points, res)
+		prev = countChange(&r, st, res, prev)
+	}
+	return r
+}
+
+// countChange counts a change of running units between time-ordered steps.
+func countChange(r *Run, st Step, res Result, prev int) int {
+	if !st.Timed() || res.Status != Served {
+		return prev
+	}
+	n := res.Running()
+	if prev >= 0 && n != prev {
+		r.Changes += abs(n - prev)
+	}
+	return n
+}
+
+func abs(v int) int {
+	if v < 0 {
+		return -v
+	}
+	return v
+}
+
+// drives counts the units on variable-speed drives.
+func drives(p *plant.Plant) int {
+	n := 0
+	for _, m := range p.Models {
+		if m.Drive.Variable() {
+			n += m.Count
+		}
+	}
+	return n
+}
+
+// Staged is common-speed staging with speed thresholds, as a plant's
+// automation system runs it: every running variable-speed unit gets one speed
+// signal; a unit is added when the speed rises above StageUp and dropped when
+// it falls below StageDown. On a trend it runs in time order with the
+// delays: a condition must hold for the delay before the change. On bins
+// (no time order) each bin takes the fewest units that serve it at or below
+// StageUp.
+type Staged struct {
+	Label     string
+	Plant     *plant.Plant
+	StageUp   float64       // fraction of rated speed
+	StageDown float64       // fraction of rated speed
+	UpDelay   time.Duration // the stage-up condition must hold this long
+	DownDelay time.Duration
+	solver    *Solver
+	total     int
+}
+
+// NewStaged returns a common-speed threshold sequence.
+func NewStaged(label string, p *plant.Plant, seq plant.Sequence) *Staged {
+	s := &Staged{Label: label, Plant: p, StageUp: seq.StageUpSpeed, StageDown: seq.StageDownSpeed,
+		UpDelay:   time.Duration(seq.StageUpDelayMin * float64(time.Minute)),
+		DownDelay: time.Duration(seq.StageDownDelayMin * float64(time.Minute)),
+		solver:    New(p, Options{CommonSpeed: true})}
+	for _, m := range p.Models {
+		s.total += m.Count
+	}
+	return s
+}
+
+func (s *Staged) Name() string { return s.Label }
+
+// commonSpeed returns the speed signal of a result (the speed of its
+// variable-speed units; 1 where none runs).
+func commonSpeed(r Result, p *plant.Plant) float64 {
+	sp := 1.0
+	for _, u := range r.Units {
+		if p.Models[u.Model].Drive.Variable() {
+			return u.Speed
+		}
+	}
+	return sp
+}
+
+func (s *Staged) solveN(load curves.Flow, n int) Result {
+	return s.solver.SolveWith(load, Constraint{Total: n})
+}
+
+// fewest returns the result with the fewest units that serve the load at a
+// speed at or below StageUp, else the fewest that serve it at all.
+func (s *Staged) fewest(load curves.Flow) (Result, int) {
+	var first *Result
+	firstN := 0
+	for n := 1; n <= s.total; n++ {
+		r := s.solveN(load, n)
+		if r.Status != Served {
+			continue
+		}
+		if commonSpeed(r, s.Plant) <= s.StageUp+1e-12 {
+			return r, n
+		}
+		if first == nil {
+			first, firstN = &r, n
+		}
+	}
+	if first != nil {
+		return *first, firstN
+	}
+	return s.solver.Solve(load), 0
+}
+
+func (s *Staged) Run(steps []Step) Run {
+	r := Run{Name: s.Label, Drives: drives(s.Plant),
+		Note: "one common speed for the running units; stage up above the stage-up speed, down below the stage-down speed"}
+	n := 0 // running units; 0 = not started
+	var upSince, downSince time.Time
+	var last time.Time
+	for _, st := range steps {
+		if !st.Timed() {
+			res, _ := s.fewest(st.Load)
+			r.Points = append(r.Points, res)
+			continue
+		}
+		if n == 0 || (!last.IsZero() && st.Time.Sub(last) > 6*time.Hour) {
+			// Start (or restart after a long gap) the way an operator would:
+			// the fewest units that serve the load below stage-up.
+			_, n = s.fewest(st.Load)
+			upSince, downSince = time.Time{}, time.Time{}
+		}
+		last = st.Time
+		res := s.solveN(st.Load, n)
+		// Cannot serve with n: stage up at once (a capacity alarm), as far as needed.
+		for res.Status != Served && n < s.total {
+			n++
+			r.Changes++
+			res = s.solveN(st.Load, n)
+			upSince, downSince = time.Time{}, time.Time{}
+		}
+		r.Points = append(r.Points, res)
+		if res.Status != Served {
+			continue
+		}
+		sp := commonSpeed(res, s.Plant)
+		end := st.Time.Add(time.Duration(st.Hours * float64(time.Hour)))
+		switch {
+		case sp > s.StageUp && n < s.total:
+			if upSince.IsZero() {
+				upSince = st.Time
+			}
+			downSince = time.Time{}
+			if end.Sub(upSince) >= s.UpDelay {
+				n++
+				r.Changes++
+				upSince = time.Time{}
+			}
+		case sp < s.StageDown && n > 1:
+			if downSince.IsZero() {
+				downSince = st.Time
+			}
+			upSince = time.Time{}
+			if end.Sub(downSince) >= s.DownDelay {
+				// Drop a unit only if the rest can serve this load.
+				if t := s.solveN(st.Load, n-1); t.Status == Served {
+					n--
+					r.Changes++
+				}
+				downSince = time.Time{}
+			}
+		default:
+			upSince, downSince = time.Time{}, time.Time{}
+		}
+	}
+	return r
+}
+
+// FixedVariant returns a copy of the plant with every unit across the line
+// (no drives), for the throttled and bypass strategies.
+func FixedVariant(p *plant.Plant) *plant.Plant {
+	q := *p
+	q.Models = append([]plant.Model(nil), p.Models...)
+	for i := range q.Models {
+		q.Models[i].Drive = curves.FixedSpeed{}
+	}
+	return &q
+}
+
+// PartialVariant returns a copy of the plant where only withDrive[i] units
+// of model i keep a variable-speed drive (the others run across the line).
+// Models are split into a driven and a fixed model where needed.
+func PartialVariant(p *plant.Plant, withDrive []int, drive curves.Drive) *plant.Plant {
+	q := *p
+	q.Models = nil
+	for i, m := range p.Models {
+		d := min(withDrive[i], m.Count)
+		if d > 0 {
+			v := m
+			v.Count, v.Drive = d, drive
+			if d < m.Count {
+				v.Name = m.Name + " (drive)"
+			}
+			q.Models = append(q.Models, v)
+		}
+		if m.Count-d > 0 {
+			f := m
+			f.Count, f.Drive = m.Count-d, curves.FixedSpeed{}
+			if d > 0 {
+				f.Name = m.Name + " (fixed)"
+			}
+			q.Models = append(q.Models, f)
+		}
+	}
+	return &q
+}
+
+// Throttled runs every unit at fixed speed on its curve with a throttling
+// valve burning the head above the system's need; the count is the fewest
+// units that serve the flow (lowest power among combinations of that count).
+type Throttled struct {
+	Label  string
+	Plant  *plant.Plant // the fixed-speed variant
+	solver *Solver
+	total  int
+}
+
+// NewThrottled returns the fixed-speed throttled strategy for the plant.
+func NewThrottled(label string, p *plant.Plant) *Throttled {
+	f := FixedVariant(p)
+	t := &Throttled{Label: label, Plant: f, solver: New(f, Options{})}
+	for _, m := range f.Models {
+		t.total += m.Count
+	}
+	return t
+}
+
+func (t *Throttled) Name() string { return t.Label }
+
+func (t *Throttled) solve(load curves.Flow) Result {
+	for n := 1; n <= t.total; n++ {
+		if r := t.solver.SolveWith(load, Constraint{Total: n}); r.Status == Served {
+			return r
+		}
+	}
+	return t.solver.Solve(load)
+}
+
+func (t *Throttled) Run(steps []Step) Run {
+	r := Run{Name: t.Label, Note: "fixed speed; a valve throttles the extra head; the fewest units that serve the flow"}
+	prev := -1
+	for _, st := range steps {
+		res := t.solve(st.Load)
+		r.Points = append(r.Points, res)
+		prev = countChange(&r, st, res, prev)
+	}
+	return r
+}
+
+// ConstantBypass runs the units at the design point all year; the flow the
+// load does not take goes through bypasses (three-way valves).
+type ConstantBypass struct {
+	Label  string
+	Plant  *plant.Plant
+	design Result
+}
+
+// NewConstantBypass returns the constant-flow strategy: the throttled
+// design-flow state held at every step.
+func NewConstantBypass(label string, p *plant.Plant) *ConstantBypass {
+	t := NewThrottled(label, p)
+	return &ConstantBypass{Label: label, Plant: t.Plant, design: t.solve(p.DesignFlow)}
+}
+
+func (c *ConstantBypass) Name() string { return c.Label }
+
+func (c *ConstantBypass) Run(steps []Step) Run {
+	r := Run{Name: c.Label, Note: "constant flow at the design point all year; the load's unused flow bypasses it"}
+	for _, st := range steps {
+		res := c.design
+		res.Units = append([]Unit(nil), c.design.Units...)
+		res.Counts = append([]int(nil), c.design.Counts...)
+		res.LoadFlow = st.Load
+		if st.Load > c.design.PumpedFlow {
+			res.Status = Unmet
+			res.Limit = LimitCapacity
+			res.Shortfall = st.Load - c.design.PumpedFlow
+			res.Reason = "load above the design flow the constant-flow plant moves"
+		}
+		res.BypassFlow = curves.Flow(math.Max(0, float64(res.PumpedFlow-st.Load)))
+		r.Points = append(r.Points, res)
+	}
+	return r
+}
