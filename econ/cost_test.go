@@ -212,7 +212,9 @@ func TestWeekShare(t *testing.T) {
 
 func TestCostInvalid(t *testing.T) {
 	day := time.Date(2025, 1, 6, 0, 0, 0, 0, time.UTC)
-	p := func(s, e int, wd, we bool) Period { return Period{Price: 0.1, StartHour: s, EndHour: e, Weekdays: wd, Weekends: we} }
+	p := func(s, e int, wd, we bool) Period {
+		return Period{Price: 0.1, StartHour: s, EndHour: e, Weekdays: wd, Weekends: we}
+	}
 	cases := []struct {
 		name   string
 		t      Tariff
