@@ -40,6 +40,12 @@ func (s *Solver) build(res Result, st *state) Result {
 		res.Warnings = append(res.Warnings, fmt.Sprintf("runs %s above the control curve (valves absorb it): %s",
 			s.plant.Units.FormatHead(excess), aboveCurveReason(&res)))
 	}
+	for _, un := range res.Units {
+		if _, doe := s.plant.Models[un.Model].Drive.(curves.DOEDrive); doe && un.DriveEff == 1 {
+			res.Warnings = append(res.Warnings, "drive efficiency shown as 100 %: at this light motor load the DOE combined motor-and-drive loss is below the motor's own loss (a limit of the DOE fit), so all of it is shown as motor loss")
+			break
+		}
+	}
 	for j, un := range res.Units {
 		if !un.Preferred {
 			res.Warnings = append(res.Warnings, fmt.Sprintf("unit %d (%s) outside its preferred operating region (70–120 %% of BEP flow, ANSI/HI 9.6.3)",
