@@ -8,11 +8,12 @@ import (
 
 // Plant is one pump group as understood from its file: every number in SI.
 type Plant struct {
-	Name   string
-	Source string            // path of the plant file
-	Units  curves.UnitSystem // how the file was read and how reports are written
-	Fluid  curves.Fluid
-	Models []Model // pump models, each with a count of identical units
+	Name        string
+	Description string            // free text from the file; may be empty
+	Source      string            // path of the plant file
+	Units       curves.UnitSystem // how the file was read and how reports are written
+	Fluid       curves.Fluid
+	Models      []Model // pump models, each with a count of identical units
 
 	System     curves.System // required head vs flow through the load
 	DesignFlow curves.Flow   // m³/s
@@ -22,12 +23,20 @@ type Plant struct {
 	Profile  Profile
 	Tariff   econ.Tariff
 	Retrofit econ.Retrofit
-	Sequence *Sequence // the plant's current staging thresholds; nil when not given
+	// HasRetrofit is true when the file has a retrofit section (Retrofit is
+	// the zero value otherwise).
+	HasRetrofit bool
+	Sequence    *Sequence // the plant's current staging thresholds; nil when not given
 
 	// Defaults lists, in plain words, every value the loader filled in because
 	// the file did not give it (e.g. "pumps[0].motor.full_load_efficiency:
 	// 93.6 % from 10 CFR 431.25 Table 5").
 	Defaults []string
+
+	// Warnings lists what is usable but questionable (a motor into its
+	// service factor at design, a unit that cannot reach the design head,
+	// a bin above the design flow), for the user to see.
+	Warnings []string
 }
 
 // Model is one pump model of which Count identical units are installed.

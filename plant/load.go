@@ -1,0 +1,283 @@
+package plant
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+
+	"gopkg.in/yaml.v3"
+
+	"wattstage/curves"
+)
+
+// MaxFileSize is the largest plant file Load and Parse accept, in bytes.
+// A plant file with a few pumps and an hourly bin for every hour of a year
+// stays well under 1 MiB.
+const MaxFileSize = 4 << 20
+
+// topKeys are the keys of a plant file, in the order they are documented.
+var topKeys = []string{"name", "description", "units", "fluid", "pumps", "system", "profile", "tariff", "retrofit", "sequence"}
+
+// Load reads and checks the plant file at path. Relative paths inside the
+// file (the trend log) are resolved against the file's folder. Every
+// problem is returned at once as an ErrorList; errors.Is(err, ErrInvalid)
+// is true for all of them, including a file that cannot be read.
+func Load(path string) (*Plant, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, ErrorList{{File: path, Msg: "cannot read the plant file: " + describeFSError(err), Err: err}}
+	}
+	defer f.Close()
+	data, err := io.ReadAll(io.LimitReader(f, MaxFileSize+1))
+	if err != nil {
+		return nil, ErrorList{{File: path, Msg: "cannot read the plant file: " + describeFSError(err), Err: err}}
+	}
+	return Parse(path, data, filepath.Dir(path))
+}
+
+// describeFSError words an fs error without repeating the path.
+func describeFSError(err error) string {
+	var pe *os.PathError
+	if errors.As(err, &pe) {
+		return pe.Err.Error()
+	}
+	return err.Error()
+}
+
+// Parse checks the plant file held in data. name is used in error messages
+// and as Plant.Source; dir is the folder against which the trend path is
+// resolved and checked for existence (empty leaves the path as written and
+// does not check it).
+func Parse(name string, data []byte, dir string) (p *Plant, err error) {
+	d := &decoder{file: name, dir: dir, density: curves.ReferenceDensity}
+	if msg := checkBytes(data); msg != "" {
+		return nil, ErrorList{{File: name, Msg: msg}}
+	}
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
+	root, e := parseYAML(name, data)
+	if e != nil {
+		return nil, ErrorList{e}
+	}
+	p = d.plant(root)
+	if len(d.errs) > 0 {
+		d.errs.sortByPosition()
+		return nil, d.errs
+	}
+	return p, nil
+}
+
+// checkBytes refuses empty, oversized and binary input before YAML sees it.
+func checkBytes(data []byte) string {
+	switch {
+	case len(data) > MaxFileSize:
+		return fmt.Sprintf("file is larger than the %d MiB limit for a plant file", MaxFileSize>>20)
+	case len(bytes.TrimSpace(data)) == 0:
+		return "file is empty: a plant file needs at least units, pumps, system, profile and tariff"
+	}
+	if i := bytes.IndexByte(data, 0); i >= 0 {
+		return fmt.Sprintf("file is not text (a zero byte at offset %d): is it a binary or UTF-16 file?", i)
+	}
+	if !utf8.Valid(data) {
+		off := 0
+		for off < len(data) {
+			r, n := utf8.DecodeRune(data[off:])
+			if r == utf8.RuneError && n <= 1 {
+				break
+			}
+			off += n
+		}
+		return fmt.Sprintf("file is not UTF-8 text (invalid byte at offset %d)", off)
+	}
+	return ""
+}
+
+var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
+
+// parseYAML decodes exactly one YAML document into a node tree.
+func parseYAML(name string, data []byte) (root *yaml.Node, perr *Error) {
+	defer func() {
+		// yaml.v3 has panicked on some malformed inputs in the past; a
+		// parser must not take the program down with it.
+		if r := recover(); r != nil {
+			root, perr = nil, &Error{File: name, Msg: fmt.Sprintf("YAML parser failed: %v", r)}
+		}
+	}()
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	var doc yaml.Node
+	if err := dec.Decode(&doc); err != nil {
+		if err == io.EOF {
+			return nil, &Error{File: name, Msg: "file has no content (only comments?): a plant file needs at least units, pumps, system, profile and tariff"}
+		}
+		return nil, syntaxError(name, data, err)
+	}
+	var extra yaml.Node
+	switch err := dec.Decode(&extra); {
+	case err == nil:
+		return nil, &Error{File: name, Line: extra.Line, Column: extra.Column,
+			Msg: "a plant file holds one YAML document; found a second one (after ---)"}
+	case err != io.EOF:
+		return nil, syntaxError(name, data, err)
+	}
+	if doc.Kind == yaml.DocumentNode && len(doc.Content) == 1 {
+		return doc.Content[0], nil
+	}
+	return &doc, nil
+}
+
+// syntaxError turns a yaml.v3 error into an Error with the line it names.
+// yaml.v3 reports no column for syntax errors, so Column stays 0.
+func syntaxError(name string, data []byte, err error) *Error {
+	msg := err.Error()
+	e := &Error{File: name}
+	if m := yamlLine.FindStringSubmatch(msg); m != nil {
+		e.Line, _ = strconv.Atoi(m[1])
+		msg = m[2]
+	} else {
+		msg = strings.TrimPrefix(msg, "yaml: ")
+	}
+	e.Msg = "YAML syntax: " + msg
+	if bytes.ContainsRune(data, '\t') && strings.Contains(msg, "cannot start any token") {
+		e.Msg += " (tabs are not allowed for indentation; use spaces)"
+	}
+	return e
+}
+
+// plant decodes the whole file.
+func (d *decoder) plant(root *yaml.Node) *Plant {
+	top := d.mapping(root, "", "a plant file", topKeys...)
+	if top == nil {
+		return nil
+	}
+	p := &Plant{Source: d.file}
+	d.readUnits(top, p)
+	if n := d.value(top, "name"); n != nil {
+		p.Name, _ = d.text(n, "name")
+	} else {
+		p.Name = strings.TrimSuffix(filepath.Base(d.file), filepath.Ext(d.file))
+		d.defaultf("name", "%q (from the file name)", p.Name)
+	}
+	if n := d.value(top, "description"); n != nil {
+		p.Description, _ = d.text(n, "description")
+	}
+	p.Fluid = d.fluid(d.value(top, "fluid"), top.has("fluid"))
+	d.density = p.Fluid.Density
+
+	specs := d.pumps(d.required(top, "pumps", "the list of pump models"))
+	sys := d.system(d.required(top, "system", "the system (design flow and head, dp_control or fixed_curve)"))
+	if sys != nil {
+		p.System, p.DesignFlow, p.DesignHead, p.MinFlow = sys.curve, sys.designFlow, sys.designHead, sys.minFlow
+	}
+	p.Profile = d.profile(d.required(top, "profile", "the load profile (bins or trend)"), sys)
+	p.Tariff = d.tariff(d.required(top, "tariff", "the tariff (at least energy_price and currency)"))
+	if n := d.value(top, "retrofit"); n != nil {
+		p.Retrofit = d.retrofit(n)
+	}
+	if n := d.value(top, "sequence"); n != nil {
+		p.Sequence = d.staging(n, specs)
+	}
+	for _, s := range specs {
+		if s != nil {
+			p.Models = append(p.Models, s.model)
+		}
+	}
+	d.checkPlant(specs, sys)
+	p.Defaults, p.Warnings = d.defaults, d.warnings
+	return p
+}
+
+// readUnits reads the unit system; numbers elsewhere depend on it.
+func (d *decoder) readUnits(top *fields, p *Plant) {
+	n := d.required(top, "units", "the unit system (US or SI) in which every number of the file is read")
+	s, ok := d.text(n, "units")
+	if !ok {
+		return
+	}
+	switch s {
+	case "US":
+		d.units, d.unitsKnown = curves.US, true
+	case "SI":
+		d.units, d.unitsKnown = curves.SI, true
+	default:
+		hint := ""
+		switch strings.ToUpper(s) {
+		case "US", "SI":
+			hint = fmt.Sprintf(" (write %s in capitals)", strings.ToUpper(s))
+		case "IMPERIAL", "USCS", "CUSTOMARY":
+			hint = " (write US)"
+		case "METRIC":
+			hint = " (write SI)"
+		}
+		d.errorf(n, "units", "must be US or SI, not %q%s", clip(s), hint)
+	}
+	p.Units = d.units
+}
+
+// Density of water at 4 °C by Kell (1975), the reference of specific
+// gravity here (DOMAIN.md §2 check value 999.972 kg/m³).
+const waterAt4C = 999.972
+
+// fluid reads the pumped fluid. With no fluid section the fluid is water at
+// 20 °C, recorded as a default.
+func (d *decoder) fluid(n *yaml.Node, given bool) curves.Fluid {
+	if !given {
+		rho, _ := curves.WaterDensity(20)
+		d.defaultf("fluid", "water at %s (density %.1f kg/m³, Kell 1975)", d.fmtTemp(20), rho)
+		return curves.Fluid{Density: rho, Temperature: 20, SG: rho / waterAt4C}
+	}
+	water, _ := curves.WaterDensity(20)
+	fallback := curves.Fluid{Density: water, Temperature: 20, SG: water / waterAt4C}
+	f := d.mapping(n, "fluid", "temperature and/or specific_gravity", "temperature", "specific_gravity")
+	if f == nil {
+		return fallback
+	}
+	tn, sn := d.value(f, "temperature"), d.value(f, "specific_gravity")
+	if tn == nil && sn == nil {
+		if !f.has("temperature") && !f.has("specific_gravity") {
+			d.errorf(f.node, "fluid", "give temperature (water, density by Kell 1975) or specific_gravity (glycol or brine)")
+		}
+		return fallback
+	}
+	t, tok := math.NaN(), false
+	if tn != nil {
+		t, tok = d.temperature(tn, "fluid.temperature")
+	}
+	if sn != nil {
+		sg, ok := d.number(sn, "fluid.specific_gravity")
+		if !ok {
+			return fallback
+		}
+		if sg < 0.5 || sg > 2 {
+			d.errorf(sn, "fluid.specific_gravity", "%s is outside 0.5–2: specific gravity is relative to water (1.0; about 1.04 for 40 %% propylene glycol)", sn.Value)
+			return fallback
+		}
+		if tok && (t < -60 || t > 150) {
+			d.errorf(tn, "fluid.temperature", "%s is outside the range of a pumped liquid here (%s to %s)", d.fmtTemp(t), d.fmtTemp(-60), d.fmtTemp(150))
+		}
+		if !tok {
+			t = math.NaN()
+		}
+		return curves.Fluid{Density: sg * waterAt4C, Temperature: t, SG: sg}
+	}
+	if !tok {
+		return fallback
+	}
+	rho, err := curves.WaterDensity(t)
+	if err != nil {
+		d.errorf(tn, "fluid.temperature", "%s is outside %s to %s, the range of the Kell (1975) water density (give specific_gravity for other liquids)",
+			d.fmtTemp(t), d.fmtTemp(0), d.fmtTemp(150))
+		return fallback
+	}
+	return curves.Fluid{Density: rho, Temperature: t, SG: rho / waterAt4C}
+}
+
+func (d *decoder) fmtTemp(c float64) string {
+	return fmtNum(d.units.TempOut(c)) + " " + d.units.TempUnit()
+}
