@@ -6,24 +6,40 @@ import (
 	"io"
 	"strings"
 	"text/tabwriter"
+	"unicode/utf8"
 
 	"wattstage/curves"
 )
 
-// table writes aligned columns; numbers are right-aligned by padding.
+// table writes aligned columns: the first column (names) left-aligned, the
+// rest (numbers) right-aligned.
 type table struct {
-	w *tabwriter.Writer
+	out  io.Writer
+	rows [][]string
 }
 
-func newTable(out io.Writer) *table {
-	return &table{w: tabwriter.NewWriter(out, 0, 0, 2, ' ', tabwriter.AlignRight)}
-}
+func newTable(out io.Writer) *table { return &table{out: out} }
 
-func (t *table) row(cells ...string) {
-	fmt.Fprintln(t.w, strings.Join(cells, "\t")+"\t")
-}
+func (t *table) row(cells ...string) { t.rows = append(t.rows, cells) }
 
-func (t *table) flush() { t.w.Flush() }
+func (t *table) flush() {
+	w := 0
+	for _, r := range t.rows {
+		if len(r) > 0 {
+			w = max(w, utf8.RuneCountInString(r[0]))
+		}
+	}
+	tw := tabwriter.NewWriter(t.out, 0, 0, 2, ' ', tabwriter.AlignRight)
+	for _, r := range t.rows {
+		cells := append([]string(nil), r...)
+		if len(cells) > 0 {
+			cells[0] = cells[0] + strings.Repeat(" ", w-utf8.RuneCountInString(cells[0]))
+		}
+		fmt.Fprintln(tw, strings.Join(cells, "\t")+"\t")
+	}
+	tw.Flush()
+	t.rows = nil
+}
 
 // heading writes a section title underlined.
 func heading(out io.Writer, title string) {

@@ -158,26 +158,34 @@ func writePlan(out io.Writer, in *planInput, pl *optimize.Plan) {
 	base := pl.Outcomes[pl.Baseline]
 	heading(out, fmt.Sprintf("Strategies over the profile (baseline: %s)", base.Run.Name))
 	t := newTable(out)
-	t.row("strategy", "energy (kWh/yr)", "peak (kW)", "cost ("+cur+"/yr)", "saved (kWh/yr)", "saved (%)",
-		"saved ("+cur+"/yr)", "drives added", "payback (yr)", "NPV ("+cur+")", "unmet (h)", "stage changes")
-	for i, o := range pl.Outcomes {
-		saved, savedPct, savedCost, payback, npv := "—", "—", "—", "—", "—"
-		if i != pl.Baseline && o.Appraisal != nil {
-			a := o.Appraisal
-			saved = num(a.EnergySaved, 0)
-			if base.Energy.KWh > 0 {
-				savedPct = fmt.Sprintf("%.1f", 100*a.EnergySaved/base.Energy.KWh)
-			}
-			savedCost = num(a.AnnualSavings, 0)
-			payback = econ.PaybackText(a.SimplePayback)
-			npv = num(a.NPV, 0)
-		}
+	t.row("strategy", "energy (kWh/yr)", "peak (kW)", "cost ("+cur+"/yr)", "emissions (t CO₂e/yr)", "unmet (h)", "stage changes")
+	for _, o := range pl.Outcomes {
 		changes := "—"
 		if len(in.steps) > 0 && in.steps[0].Timed() {
 			changes = fmt.Sprint(o.Energy.Changes)
 		}
-		t.row(o.Run.Name, num(o.Energy.KWh, 0), num(o.Energy.PeakKW, 1), num(o.Bill.Total, 0), saved, savedPct, savedCost,
-			fmt.Sprint(o.DrivesAdded), payback, npv, num(o.Energy.HoursUnmet, 0), changes)
+		t.row(o.Run.Name, num(o.Energy.KWh, 0), num(o.Energy.PeakKW, 1), num(o.Bill.Total, 0), num(o.Bill.Emissions/1000, 1),
+			num(o.Energy.HoursUnmet, 0), changes)
+	}
+	t.flush()
+	heading(out, "Against the baseline")
+	t.row("strategy", "saved (kWh/yr)", "saved (%)", "saved ("+cur+"/yr)", "drives added", "investment ("+cur+")",
+		"simple payback", "NPV ("+cur+")", "SIR")
+	for i, o := range pl.Outcomes {
+		if i == pl.Baseline || o.Appraisal == nil {
+			continue
+		}
+		a := o.Appraisal
+		savedPct := "—"
+		if base.Energy.KWh > 0 {
+			savedPct = fmt.Sprintf("%.1f", 100*a.EnergySaved/base.Energy.KWh)
+		}
+		sir := "—"
+		if !math.IsInf(a.SIR, 0) && !math.IsNaN(a.SIR) {
+			sir = num(a.SIR, 2)
+		}
+		t.row(o.Run.Name, num(a.EnergySaved, 0), savedPct, num(a.AnnualSavings, 0), fmt.Sprint(o.DrivesAdded),
+			num(a.Investment, 0), econ.PaybackText(a.SimplePayback), num(a.NPV, 0), sir)
 	}
 	t.flush()
 	r := p.Retrofit

@@ -157,7 +157,11 @@ func NewPlan(p *plant.Plant, steps []Step, opt PlanOptions) (*Plan, error) {
 			continue
 		}
 		o.DrivesAdded = max(0, o.Run.Drives-b.Run.Drives)
-		a, err := econ.Appraise(p.Retrofit, b.Bill, o.Bill, o.DrivesAdded)
+		terms := p.Retrofit
+		if o.DrivesAdded == 0 {
+			terms.OtherCost = 0 // the other retrofit costs come with drives
+		}
+		a, err := econ.Appraise(terms, b.Bill, o.Bill, o.DrivesAdded)
 		if err != nil {
 			return nil, err
 		}

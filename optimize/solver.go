@@ -200,8 +200,10 @@ func (s *Solver) atHead(cnt []int, Q, h float64) (*state, side) {
 		u := s.units[i]
 		sp := u.bounds(h)
 		if !sp.ok {
-			if sp.why == LimitMinFlow && !u.variable {
-				return nil, tooLittle // a fixed unit pushed back below its minimum flow: no higher head helps
+			// A fixed-speed unit past its runout or overloaded at this head
+			// moves less flow at a higher head; anything else gets worse.
+			if !u.variable && (sp.why == LimitRunout || sp.why == LimitOverload) {
+				return nil, tooMuch
 			}
 			return nil, tooLittle
 		}
@@ -473,7 +475,10 @@ func (s *Solver) headCap(cnt []int) float64 {
 }
 
 // lowestFeasibleHead finds, for a combo that moves too much flow at the
-// required head, the lowest header head at which it serves the flow.
+// required head, the lowest header head at which it serves the flow: a scan
+// up to the combo's head limit, then bisection on the first step that no
+// longer moves too much (for fixed-speed units alone the feasible head is a
+// single point, where their curve flows add up to the pumped flow).
 func (s *Solver) lowestFeasibleHead(cnt []int, Q, hr float64) *state {
 	hc := s.headCap(cnt)
 	if hc <= hr {
@@ -484,24 +489,27 @@ func (s *Solver) lowestFeasibleHead(cnt []int, Q, hr float64) *state {
 	for k := 1; k <= n; k++ {
 		h := hr + (hc-hr)*float64(k)/n
 		st, sd := s.atHead(cnt, Q, h)
-		if sd == fits {
-			a, b := prev, h
-			for it := 0; it < 60 && b-a > 1e-12*b; it++ {
-				m := (a + b) / 2
-				if t, sd := s.atHead(cnt, Q, m); sd == fits {
-					b, st = m, t
-				} else if sd == tooMuch {
-					a = m
-				} else {
-					break
-				}
+		if sd == tooMuch {
+			prev = h
+			continue
+		}
+		a, b := prev, h
+		for it := 0; it < 100 && b-a > 1e-13*b; it++ {
+			m := (a + b) / 2
+			t, sd := s.atHead(cnt, Q, m)
+			switch sd {
+			case tooMuch:
+				a = m
+			case fits:
+				b, st = m, t
+			default:
+				b = m
 			}
-			return st
 		}
-		if sd == tooLittle {
-			return nil
+		if st == nil {
+			st, _ = s.atHead(cnt, Q, b)
 		}
-		prev = h
+		return st
 	}
 	return nil
 }
