@@ -1,0 +1,556 @@
+package optimize_test
+
+// The optimality suite: the solver against the brute-force reference
+// (reference_test.go) on plants of many shapes, plus the known cases with a
+// source outside the project.
+//
+// The plants are invented for the test (the check is the reference, not
+// the plant data); they are built from shape parameters so that every
+// curve is known exactly: a quadratic head curve H₀ = H_b (r − (r−1) x²) or
+// a humped cubic, and an efficiency η₀ = η_b (a x + b x² + c x³) through the
+// origin with its peak η_b at x = Q/Q_BEP = 1.
+
+import (
+	"fmt"
+	"math"
+	"testing"
+
+	"wattstage/curves"
+	"wattstage/optimize"
+	"wattstage/plant"
+)
+
+// suitePump is an invented rated-speed datasheet, given by shape.
+type suitePump struct {
+	bepFlow curves.Flow // m³/s
+	bepHead curves.Head // m
+	bepEff  float64     // 0–1
+	shutoff float64     // shutoff head over BEP head, quadratic curves; 0 means 1.25
+	// effK is −η''(1)/η_b in x = Q/Q_BEP: 2 is the usual parabola through the
+	// origin, smaller is a flatter top. 0 means 2.
+	effK            float64
+	humped          bool // cubic head H₀/H_b = 1.1 + 0.4x − 0.4x² − 0.1x³, peak 1.19 at x ≈ 0.43
+	speedCorrection bool // Sârbu–Borza step-down below rated speed
+}
+
+func (s suitePump) headAt(x float64) float64 {
+	if s.humped {
+		return 1.1 + 0.4*x - 0.4*x*x - 0.1*x*x*x
+	}
+	r := s.shutoff
+	if r == 0 {
+		r = 1.25
+	}
+	return r - (r-1)*x*x
+}
+
+// effAt is η₀/η_b: with a = 3 − k/2, b = −(3 − k), c = 1 − k/2 it passes
+// through 0 at x = 0 and 1 at x = 1 with zero slope there and curvature −k.
+func (s suitePump) effAt(x float64) float64 {
+	k := s.effK
+	if k == 0 {
+		k = 2
+	}
+	a, b, c := 3-k/2, -(3 - k), 1-k/2
+	return x * (a + x*(b+x*c))
+}
+
+func (s suitePump) build(t testing.TB) *curves.Pump {
+	t.Helper()
+	var pts []curves.PumpPoint
+	for _, x := range []float64{0, 0.25, 0.5, 0.75, 1, 1.15, 1.3} {
+		pts = append(pts, curves.PumpPoint{
+			Flow: curves.Flow(x) * s.bepFlow,
+			Head: curves.Head(s.headAt(x)) * s.bepHead,
+			Eff:  s.bepEff * s.effAt(x),
+		})
+	}
+	opt := curves.PumpOptions{SpeedCorrection: s.speedCorrection}
+	if s.humped {
+		opt.HeadDegree, opt.AllowRising = 3, true
+	}
+	p, err := curves.NewPump(pts, opt)
+	if err != nil {
+		t.Fatalf("suite pump: %v", err)
+	}
+	return p
+}
+
+// suiteModel is one pump model of a suite plant.
+type suiteModel struct {
+	name     string
+	count    int
+	pump     suitePump
+	motorHP  float64 // rated output, hp
+	poles    int     // 2 or 4; 0 means 4
+	drive    curves.Drive
+	minSpeed float64 // 0 means 0.3
+	maxSpeed float64 // 0 means 1
+	minFlowX float64 // minimum flow over BEP flow at rated speed; 0 means 0.3, <0 means none
+	runoutX  float64 // runout over BEP flow; 0 means 1.25
+	// branchFrac is the branch loss at BEP flow as a fraction of BEP head.
+	branchFrac float64
+	motorTable []curves.LoadEff
+}
+
+func (m suiteModel) build(t testing.TB) plant.Model {
+	t.Helper()
+	poles := m.poles
+	if poles == 0 {
+		poles = 4
+	}
+	rated := curves.Power(m.motorHP * curves.Horsepower)
+	// Full-load efficiency from the 10 CFR 431.25 Table 5 values in curves:
+	// plant data here, not a check value.
+	eff, err := curves.PremiumEfficiency(rated, poles)
+	if err != nil {
+		t.Fatalf("suite motor %g hp %d-pole: %v", m.motorHP, poles, err)
+	}
+	rpm := 1780.0
+	if poles == 2 {
+		rpm = 3560
+	}
+	def := func(v, d float64) float64 {
+		if v == 0 {
+			return d
+		}
+		return v
+	}
+	minX := def(m.minFlowX, 0.3)
+	if minX < 0 {
+		minX = 0
+	}
+	drive := m.drive
+	if drive == nil {
+		drive = curves.DOEDrive{}
+	}
+	qb, hb := float64(m.pump.bepFlow), float64(m.pump.bepHead)
+	return plant.Model{
+		Name: m.name, Count: m.count, RatedSpeed: rpm, Pump: m.pump.build(t),
+		MinSpeed: def(m.minSpeed, 0.3), MaxSpeed: def(m.maxSpeed, 1),
+		MinFlow: curves.Flow(minX * qb), Runout: curves.Flow(def(m.runoutX, 1.25) * qb),
+		Motor:   curves.Motor{Rated: rated, FullLoadEff: eff, Table: m.motorTable},
+		Drive:   drive,
+		BranchK: m.branchFrac * hb / (qb * qb),
+	}
+}
+
+// The suite's pump sizes (invented).
+var (
+	pumpL  = suitePump{bepFlow: 0.10, bepHead: 32, bepEff: 0.84} // ≈ 50 hp shaft at BEP
+	pumpM  = suitePump{bepFlow: 0.05, bepHead: 30, bepEff: 0.80} // ≈ 25 hp
+	pumpS  = suitePump{bepFlow: 0.02, bepHead: 30, bepEff: 0.74} // ≈ 11 hp
+	pumpP2 = suitePump{bepFlow: 0.03, bepHead: 45, bepEff: 0.78} // ≈ 23 hp, 2-pole
+	pumpHm = suitePump{bepFlow: 0.10, bepHead: 30, bepEff: 0.83, humped: true}
+)
+
+func with(p suitePump, f func(*suitePump)) suitePump { f(&p); return p }
+
+func dp(q curves.Flow, h curves.Head, ctlFrac float64) curves.System {
+	return curves.DPControl{DesignFlow: q, DesignHead: h, ControlHead: h * curves.Head(ctlFrac)}
+}
+
+func fixedCurve(q curves.Flow, h curves.Head, staticFrac float64) curves.System {
+	return curves.FixedCurve{DesignFlow: q, DesignHead: h, Static: h * curves.Head(staticFrac)}
+}
+
+// suitePlant is a named plant of the suite.
+type suitePlant struct {
+	name    string
+	system  curves.System
+	minFlow curves.Flow
+	tempC   float64 // fluid temperature, °C; 0 means 7 (chilled water)
+	models  []suiteModel
+}
+
+func (s suitePlant) build(t testing.TB) *plant.Plant {
+	t.Helper()
+	temp := s.tempC
+	if temp == 0 {
+		temp = 7
+	}
+	rho, err := curves.WaterDensity(temp)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := &plant.Plant{Name: s.name, Fluid: curves.Fluid{Density: rho, Temperature: temp, SG: rho / 999.972},
+		System: s.system, MinFlow: s.minFlow}
+	for _, m := range s.models {
+		pm := m.build(t)
+		if err := refCheckModel(&pm); err != nil {
+			t.Fatalf("plant %s: %v", s.name, err)
+		}
+		p.Models = append(p.Models, pm)
+	}
+	switch sys := s.system.(type) {
+	case curves.DPControl:
+		p.DesignFlow, p.DesignHead = sys.DesignFlow, sys.DesignHead
+	case curves.FixedCurve:
+		p.DesignFlow, p.DesignHead = sys.DesignFlow, sys.DesignHead
+	}
+	return p
+}
+
+// Drive efficiency of a 100 hp VFD at 1.6/12.5/25/42/50/75/100 % load, US DOE
+// Motor Systems Tip Sheet #11 (DOMAIN §5, [C]); plant data here.
+var tipSheet100hp = curves.TableDrive{Table: []curves.LoadEff{
+	{Load: 0.016, Eff: 0.55}, {Load: 0.125, Eff: 0.89}, {Load: 0.25, Eff: 0.94}, {Load: 0.42, Eff: 0.95},
+	{Load: 0.50, Eff: 0.96}, {Load: 0.75, Eff: 0.97}, {Load: 1.00, Eff: 0.97}}}
+
+// An invented IEC 61800-9-2 style loss table (% of rated power).
+func iecDrive(t testing.TB) curves.Drive {
+	d, err := curves.NewIECDrive([]curves.IECPoint{
+		{Speed: 0, Torque: 25, LossPct: 1.0}, {Speed: 0, Torque: 50, LossPct: 1.3}, {Speed: 0, Torque: 100, LossPct: 2.2},
+		{Speed: 50, Torque: 25, LossPct: 1.2}, {Speed: 50, Torque: 50, LossPct: 1.6}, {Speed: 50, Torque: 100, LossPct: 2.6},
+		{Speed: 90, Torque: 50, LossPct: 2.0}, {Speed: 90, Torque: 100, LossPct: 3.1},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return d
+}
+
+// constantChain is a motor table and a drive table of constant efficiency:
+// the power chain then scales exactly as the shaft power.
+var (
+	constantMotor = []curves.LoadEff{{Load: 0, Eff: 0.95}, {Load: 2, Eff: 0.95}}
+	constantDrive = curves.TableDrive{Table: []curves.LoadEff{{Load: 0, Eff: 0.97}, {Load: 2, Eff: 0.97}}}
+)
+
+// suitePlants returns the suite, built deterministically.
+func suitePlants(t testing.TB) []*plant.Plant {
+	t.Helper()
+	L := suiteModel{name: "L", count: 3, pump: pumpL, motorHP: 60}
+	M := suiteModel{name: "M", count: 1, pump: pumpM, motorHP: 30}
+	S := suiteModel{name: "S", count: 1, pump: pumpS, motorHP: 15}
+	n := func(m suiteModel, count int) suiteModel { m.count = count; return m }
+	mod := func(m suiteModel, f func(*suiteModel)) suiteModel { f(&m); return m }
+	specs := []suitePlant{
+		{name: "identical-3", system: dp(0.25, 30, 0.4), models: []suiteModel{L}},
+		{name: "identical-4-zero-control", system: dp(0.30, 30, 0), models: []suiteModel{n(L, 4)}},
+		{name: "identical-2-high-control", system: dp(0.09, 30, 0.8), models: []suiteModel{n(M, 2)}},
+		{name: "two-sizes", system: dp(0.25, 30, 0.4), models: []suiteModel{n(L, 2), M}},
+		{name: "small-beside-large", system: dp(0.20, 30, 0.3), models: []suiteModel{n(L, 2), S}},
+		{name: "fixed-among-variable", system: dp(0.25, 30, 0.5), models: []suiteModel{n(L, 2),
+			mod(L, func(m *suiteModel) { m.name, m.count, m.drive = "L-fixed", 1, curves.FixedSpeed{} })}},
+		{name: "fixed-small-with-large", system: dp(0.22, 30, 0.6), models: []suiteModel{n(L, 2),
+			mod(S, func(m *suiteModel) { m.name, m.drive = "S-fixed", curves.FixedSpeed{} })}},
+		{name: "steep-curves", system: dp(0.25, 30, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.pump.shutoff = 1.5; m.motorHP = 75 })}},
+		{name: "flat-curves", system: dp(0.25, 30, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.pump.shutoff = 1.1 })}},
+		{name: "flat-efficiency", system: dp(0.25, 30, 0.3), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.pump.effK = 1.2 })}},
+		{name: "fixed-system-static-50", system: fixedCurve(0.25, 30, 0.5), models: []suiteModel{L}},
+		{name: "fixed-system-static-80-two-sizes", system: fixedCurve(0.22, 30, 0.8), models: []suiteModel{n(L, 2), M}},
+		{name: "plant-minimum-flow", system: dp(0.25, 30, 0.4), minFlow: 0.06, models: []suiteModel{L}},
+		{name: "branch-losses", system: dp(0.25, 30, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.branchFrac = 0.05 })}},
+		{name: "branch-losses-mixed", system: dp(0.22, 28, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.count, m.branchFrac = 2, 0.08 }),
+			mod(M, func(m *suiteModel) { m.branchFrac = 0.02 })}},
+		{name: "two-pole", system: dp(0.08, 42, 0.4), models: []suiteModel{
+			{name: "P2", count: 3, pump: pumpP2, motorHP: 30, poles: 2}}},
+		{name: "two-pole-beside-four-pole", system: dp(0.22, 30, 0.4), models: []suiteModel{n(L, 2),
+			{name: "P2", count: 1, pump: pumpP2, motorHP: 30, poles: 2}}},
+		{name: "humped", system: dp(0.25, 28, 0.5), models: []suiteModel{
+			{name: "H", count: 3, pump: pumpHm, motorHP: 60, minFlowX: 0.45}}},
+		{name: "speed-correction", system: dp(0.25, 30, 0.3), tempC: 60, models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.pump.speedCorrection = true })}},
+		{name: "setpoint-reset", models: []suiteModel{L}, system: curves.DPControl{DesignFlow: 0.25, DesignHead: 30, ControlHead: 12,
+			Reset: &curves.Reset{LowFlow: 0.06, LowHead: 6, HighFlow: 0.2}}},
+		{name: "motor-overload", system: dp(0.20, 30, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.count, m.maxSpeed = 2, 1.1 })}},
+		{name: "tip-sheet-drive", system: dp(0.25, 30, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.drive = tipSheet100hp })}},
+		{name: "iec-drive", system: dp(0.09, 28, 0.5), models: []suiteModel{
+			mod(M, func(m *suiteModel) { m.count, m.drive = 2, iecDrive(t) })}},
+		{name: "all-fixed-speed", system: fixedCurve(0.25, 30, 0.6), minFlow: 0.03, models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.drive = curves.FixedSpeed{} })}},
+		{name: "three-models", system: dp(0.17, 30, 0.4), models: []suiteModel{n(L, 1), M, S}},
+		{name: "constant-chain-zero-control", system: dp(0.25, 30, 0), models: []suiteModel{
+			mod(L, func(m *suiteModel) {
+				m.drive, m.motorTable, m.minSpeed, m.minFlowX = constantDrive, constantMotor, 0.1, -1
+			})}},
+	}
+	var out []*plant.Plant
+	for _, s := range specs {
+		out = append(out, s.build(t))
+	}
+	return out
+}
+
+// suiteCapacity is an upper bound on what the plant can pump: every unit at
+// runout and maximum speed.
+func suiteCapacity(p *plant.Plant) curves.Flow {
+	var c curves.Flow
+	for _, m := range p.Models {
+		s := 1.0
+		if m.Variable() {
+			s = m.MaxSpeed
+		}
+		c += curves.Flow(float64(m.Count) * float64(m.Runout) * s)
+	}
+	return c
+}
+
+// suiteFlows spreads n load flows from 1 % to 110 % of the capacity bound,
+// so that every plant is tried below its smallest deliverable flow, across
+// every staging, and beyond what it can serve.
+func suiteFlows(p *plant.Plant, n int) []curves.Flow {
+	c := suiteCapacity(p)
+	out := make([]curves.Flow, n)
+	for k := range out {
+		out[k] = c * curves.Flow(0.01+1.09*float64(k)/float64(n-1))
+	}
+	return out
+}
+
+// suiteTol is the tolerance on power against the reference: 0.05 %.
+const suiteTol = 5e-4
+
+func suiteNumFlows() int {
+	if testing.Short() {
+		return 9
+	}
+	return 25
+}
+
+// TestOptimiserMatchesReference runs the solver and the brute-force
+// reference on every suite plant at many flows, with each unit at its own
+// speed and with one common speed, and checks power (within 0.05 %),
+// feasibility and the invariants of every served result.
+func TestOptimiserMatchesReference(t *testing.T) {
+	for _, p := range suitePlants(t) {
+		for _, common := range []bool{false, true} {
+			mode := "individual"
+			if common {
+				mode = "common-speed"
+			}
+			t.Run(p.Name+"/"+mode, func(t *testing.T) {
+				t.Parallel()
+				s := optimize.New(p, optimize.Options{CommonSpeed: common})
+				var worst, sum float64
+				var served, misses int
+				for _, q := range suiteFlows(p, suiteNumFlows()) {
+					res := s.Solve(q)
+					ref := refSolve(p, q, common)
+					for _, msg := range suiteInvariants(p, q, common, &res) {
+						t.Errorf("plant %s, load %.5g m³/s: invariant: %s", p.Name, float64(q), msg)
+					}
+					d, miss, msg := suiteCompare(p, q, &res, &ref)
+					if msg != "" {
+						t.Errorf("plant %s, load %.5g m³/s (%.1f m³/h): %s", p.Name, float64(q), float64(q)/curves.M3PerH, msg)
+					}
+					if miss {
+						misses++
+						t.Logf("plant %s, load %.5g m³/s: reference grid missed the optimiser's (verified) state: optimiser %.6g kW %v, reference %v %.6g kW %v",
+							p.Name, float64(q), float64(res.Power)/1e3, res.Counts, ref.Feasible, float64(ref.Power)/1e3, ref.Counts)
+					}
+					if res.Status == optimize.Served && ref.Feasible {
+						served++
+						worst = math.Max(worst, d)
+						sum += d
+					}
+				}
+				if served > 0 {
+					t.Logf("plant %s (%s): %d served points, power vs reference mean %+.2e worst %+.2e relative; %d reference misses",
+						p.Name, mode, served, sum/float64(served), worst, misses)
+				}
+			})
+		}
+	}
+}
+
+// suiteCompare compares one solver result with the reference. It returns the
+// relative excess of the solver's power over the reference, whether the
+// reference missed a state the solver found (checked with the reference's
+// own physics), and a mismatch message ("" when they agree).
+func suiteCompare(p *plant.Plant, q curves.Flow, res *optimize.Result, ref *refResult) (float64, bool, string) {
+	served := res.Status == optimize.Served
+	refPower, refFeasible := ref.Power, ref.Feasible
+	miss := false
+	var recheck string
+	if served && (!refFeasible || float64(res.Power) < float64(refPower)*(1-suiteTol)) {
+		// The solver claims better than the reference: rebuild its state from
+		// its running models and speeds alone with the reference's physics.
+		models := make([]int, len(res.Units))
+		speeds := make([]float64, len(res.Units))
+		for i, u := range res.Units {
+			models[i], speeds[i] = u.Model, u.Speed
+		}
+		pw, h, ok := refRecheck(p, q, models, speeds)
+		switch {
+		case ok && math.Abs(float64(pw-res.Power)) <= 1e-6*float64(res.Power):
+			miss = true
+			refPower, refFeasible = pw, true
+		case ok:
+			recheck = fmt.Sprintf("; its speeds rebuilt by the reference give %.6g kW at header %.4f m", float64(pw)/1e3, float64(h))
+		default:
+			recheck = "; its speeds rebuilt by the reference give no state inside every limit"
+		}
+	}
+	refDesc := "unmet"
+	if refFeasible {
+		refDesc = fmt.Sprintf("%.6g kW counts %v", float64(refPower)/1e3, ref.Counts)
+		if miss {
+			refDesc = fmt.Sprintf("%.6g kW (its own best %s %.6g kW %v)", float64(refPower)/1e3, feasibleWord(ref.Feasible), float64(ref.Power)/1e3, ref.Counts)
+		}
+	}
+	optDesc := "unmet (" + string(res.Limit) + ": " + res.Reason + ")"
+	if served {
+		optDesc = fmt.Sprintf("%.6g kW counts %v", float64(res.Power)/1e3, res.Counts)
+		if pw, ok := ref.ByCounts[fmt.Sprint(res.Counts)]; ok {
+			optDesc += fmt.Sprintf(" (reference for those counts %.6g kW)", float64(pw)/1e3)
+		}
+	}
+	switch {
+	case served && !refFeasible:
+		return 0, false, fmt.Sprintf("optimiser serves what the reference finds infeasible: optimiser %s, reference unmet%s", optDesc, recheck)
+	case !served && refFeasible:
+		return 0, false, fmt.Sprintf("optimiser reports unmet what the reference serves: optimiser %s, reference %s", optDesc, refDesc)
+	case !served:
+		return 0, false, ""
+	}
+	d := float64(res.Power)/float64(refPower) - 1
+	if math.Abs(d) > suiteTol {
+		return d, miss, fmt.Sprintf("power off by %+.4f %%: optimiser %s, reference %s%s", 100*d, optDesc, refDesc, recheck)
+	}
+	return d, miss, ""
+}
+
+func feasibleWord(ok bool) string {
+	if ok {
+		return "feasible"
+	}
+	return "none"
+}
+
+// suiteInvariants checks a result against the physics by recomputing every
+// reported number from the reported speeds and flows.
+func suiteInvariants(p *plant.Plant, load curves.Flow, common bool, r *optimize.Result) []string {
+	var bad []string
+	fail := func(format string, a ...any) { bad = append(bad, fmt.Sprintf(format, a...)) }
+	rel := func(a, b float64) float64 { return math.Abs(a-b) / math.Max(math.Abs(b), 1e-300) }
+	pumped := load
+	if p.MinFlow > pumped {
+		pumped = p.MinFlow
+	}
+	if r.LoadFlow != load {
+		fail("LoadFlow %g, asked %g", float64(r.LoadFlow), float64(load))
+	}
+	if r.Status != optimize.Served {
+		if r.Reason == "" {
+			fail("unmet result without a reason")
+		}
+		if r.Shortfall < 0 {
+			fail("negative shortfall %g", float64(r.Shortfall))
+		}
+		return bad
+	}
+	if rel(float64(r.PumpedFlow), float64(pumped)) > 1e-12 {
+		fail("PumpedFlow %g, want max(load, plant minimum) = %g", float64(r.PumpedFlow), float64(pumped))
+	}
+	if rel(float64(r.BypassFlow), float64(pumped-load)) > 1e-9 && math.Abs(float64(r.BypassFlow-(pumped-load))) > 1e-12 {
+		fail("BypassFlow %g, want %g", float64(r.BypassFlow), float64(pumped-load))
+	}
+	if rel(float64(r.RequiredHead), float64(p.System.Required(load))) > 1e-12 {
+		fail("RequiredHead %g, system gives %g", float64(r.RequiredHead), float64(p.System.Required(load)))
+	}
+	if r.HeaderHead < r.RequiredHead*(1-1e-9) {
+		fail("HeaderHead %.9g below RequiredHead %.9g", float64(r.HeaderHead), float64(r.RequiredHead))
+	}
+	counts := make([]int, len(p.Models))
+	var sumQ curves.Flow
+	var sumP curves.Power
+	commonSpeed := math.NaN()
+	for i, u := range r.Units {
+		if u.Model < 0 || u.Model >= len(p.Models) {
+			fail("unit %d: model %d out of range", i, u.Model)
+			continue
+		}
+		m := &p.Models[u.Model]
+		counts[u.Model]++
+		sumQ += u.Flow
+		sumP += u.Electrical
+		if m.Variable() {
+			if u.Speed < m.MinSpeed*(1-1e-9) || u.Speed > m.MaxSpeed*(1+1e-9) {
+				fail("unit %d (%s): speed %.9g outside %g–%g", i, m.Name, u.Speed, m.MinSpeed, m.MaxSpeed)
+			}
+			if common {
+				if math.IsNaN(commonSpeed) {
+					commonSpeed = u.Speed
+				} else if math.Abs(u.Speed-commonSpeed) > 1e-9 {
+					fail("unit %d (%s): speed %.9g differs from the common speed %.9g", i, m.Name, u.Speed, commonSpeed)
+				}
+			}
+		} else if u.Speed != 1 {
+			fail("unit %d (%s): fixed-speed unit at speed %g", i, m.Name, u.Speed)
+		}
+		if u.Flow < curves.Flow(float64(m.MinFlow)*u.Speed*(1-1e-9)) {
+			fail("unit %d (%s): flow %.6g below minimum flow %.6g at its speed", i, m.Name, float64(u.Flow), float64(m.MinFlow)*u.Speed)
+		}
+		if u.Flow > curves.Flow(float64(m.Runout)*u.Speed*(1+1e-9)) {
+			fail("unit %d (%s): flow %.6g past runout %.6g at its speed", i, m.Name, float64(u.Flow), float64(m.Runout)*u.Speed)
+		}
+		// The unit's own head equals the header head plus its branch loss, on
+		// its curve at its reported speed.
+		own := m.Pump.Head(u.Flow, u.Speed)
+		if rel(float64(own), float64(u.Head)) > 1e-7 {
+			fail("unit %d (%s): reported head %.9g m, its curve gives %.9g m at %.6g m³/s and speed %.6g",
+				i, m.Name, float64(u.Head), float64(own), float64(u.Flow), u.Speed)
+		}
+		branch := curves.Head(m.BranchK * float64(u.Flow) * float64(u.Flow))
+		if rel(float64(own-branch), float64(r.HeaderHead)) > 1e-7 {
+			fail("unit %d (%s): curve head %.9g m less branch loss %.6g m differs from the header head %.9g m",
+				i, m.Name, float64(own), float64(branch), float64(r.HeaderHead))
+		}
+		shaft := m.Pump.ShaftPower(u.Flow, u.Speed, p.Fluid.Density)
+		if rel(float64(u.Shaft), float64(shaft)) > 1e-9 {
+			fail("unit %d (%s): shaft %.9g W, recomputed %.9g W", i, m.Name, float64(u.Shaft), float64(shaft))
+		}
+		if float64(shaft) > float64(m.Motor.Rated)*m.Motor.SF()*(1+1e-9) {
+			fail("unit %d (%s): shaft %.6g W above rated × service factor %.6g W", i, m.Name, float64(shaft), float64(m.Motor.Rated)*m.Motor.SF())
+		}
+		c := m.Drive.Input(m.Motor, shaft, u.Speed)
+		if rel(float64(u.Electrical), float64(c.Electrical)) > 1e-9 {
+			fail("unit %d (%s): electrical %.9g W, recomputed %.9g W", i, m.Name, float64(u.Electrical), float64(c.Electrical))
+		}
+		if rel(u.PumpEff, m.Pump.Eff(u.Flow, u.Speed)) > 1e-9 || rel(u.MotorEff, c.MotorEff) > 1e-9 ||
+			rel(u.DriveEff, c.DriveEff) > 1e-9 || rel(u.Load, c.Load) > 1e-9 {
+			fail("unit %d (%s): efficiencies/load (%.6g, %.6g, %.6g, %.6g), recomputed (%.6g, %.6g, %.6g, %.6g)", i, m.Name,
+				u.PumpEff, u.MotorEff, u.DriveEff, u.Load, m.Pump.Eff(u.Flow, u.Speed), c.MotorEff, c.DriveEff, c.Load)
+		}
+		hyd := curves.HydraulicPower(p.Fluid.Density, u.Flow, own)
+		if u.Electrical < u.Shaft || u.Shaft < hyd*(1-1e-9) {
+			fail("unit %d (%s): electrical %.6g W, shaft %.6g W, hydraulic %.6g W out of order", i, m.Name,
+				float64(u.Electrical), float64(u.Shaft), float64(hyd))
+		}
+	}
+	for i, c := range counts {
+		if i >= len(r.Counts) || r.Counts[i] != c {
+			fail("Counts %v do not match the units listed (%v)", r.Counts, counts)
+			break
+		}
+		if c > p.Models[i].Count {
+			fail("model %s: %d running of %d installed", p.Models[i].Name, c, p.Models[i].Count)
+		}
+	}
+	if len(r.Units) == 0 {
+		fail("served without a running unit")
+	}
+	if rel(float64(sumQ), float64(r.PumpedFlow)) > 1e-7 {
+		fail("unit flows sum to %.9g m³/s, pumped flow %.9g m³/s", float64(sumQ), float64(r.PumpedFlow))
+	}
+	if rel(float64(sumP), float64(r.Power)) > 1e-9 {
+		fail("unit powers sum to %.9g W, reported total %.9g W", float64(sumP), float64(r.Power))
+	}
+	hyd := curves.HydraulicPower(p.Fluid.Density, r.PumpedFlow, r.HeaderHead)
+	if rel(float64(r.Hydraulic), float64(hyd)) > 1e-7 {
+		fail("Hydraulic %.9g W, ρgQH gives %.9g W", float64(r.Hydraulic), float64(hyd))
+	}
+	if r.Power < r.Hydraulic {
+		fail("electrical %.6g W below hydraulic %.6g W", float64(r.Power), float64(r.Hydraulic))
+	}
+	return bad
+}
