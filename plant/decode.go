@@ -515,18 +515,22 @@ func (d *decoder) efficiency(n *yaml.Node, path string) (float64, bool) {
 	return e, true
 }
 
-// minutes reads a delay in minutes (bare or "min"), or seconds with "s".
+// minutes reads a time in minutes (bare or "min"), or in seconds or hours
+// with "s" or "h".
 func (d *decoder) minutes(n *yaml.Node, path string) (float64, bool) {
-	v, u, ok := d.quantity(n, path, "a delay in minutes", "min", "s")
+	v, u, ok := d.quantity(n, path, "a time in minutes", "min", "s", "h")
 	if !ok {
 		return 0, false
 	}
 	if v < 0 {
-		d.errorf(n, path, "%s: a delay must not be negative", n.Value)
+		d.errorf(n, path, "%s: a time must not be negative", n.Value)
 		return 0, false
 	}
-	if u == "s" {
+	switch u {
+	case "s":
 		v /= 60
+	case "h":
+		v *= 60
 	}
 	return v, true
 }

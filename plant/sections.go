@@ -107,7 +107,8 @@ func (s *systemSpec) designFlowOrZero() curves.Flow {
 	return s.designFlow
 }
 
-var trendKeys = []string{"file", "time_column", "time_format", "flow_column", "flow_unit", "dp_column", "dp_unit", "power_column"}
+var trendKeys = []string{"file", "time_column", "time_format", "time_zone", "interval", "flow_column", "flow_unit", "max_flow",
+	"dp_column", "dp_unit", "power_column"}
 
 // trend reads where a trend log is and how its columns map.
 func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
@@ -119,20 +120,29 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 	t := &profile.TrendSpec{}
 	fn := d.required(f, "file", "the CSV file, relative to the plant file")
 	if p, ok := d.text(fn, join(path, "file")); ok {
-		t.Path = p
-		if d.dir != "" && !filepath.IsAbs(p) {
-			t.Path = filepath.Join(d.dir, p)
-		}
+		t.Path = p // as written: relative to the plant file's folder
 		if d.dir != "" {
-			if st, err := os.Stat(t.Path); err != nil {
+			full := p
+			if !filepath.IsAbs(p) {
+				full = filepath.Join(d.dir, p)
+			}
+			if st, err := os.Stat(full); err != nil {
 				d.errorf(fn, join(path, "file"), "cannot read %s: %s (paths are relative to the plant file's folder)", p, describeFSError(err))
 			} else if st.IsDir() {
 				d.errorf(fn, join(path, "file"), "%s is a folder, not a CSV file", p)
 			}
 		}
 	}
-	t.TimeColumn, _ = d.text(d.required(f, "time_column", "the header of the timestamp column"), join(path, "time_column"))
-	t.FlowColumn, _ = d.text(d.required(f, "flow_column", "the header of the plant flow column"), join(path, "flow_column"))
+	if v := d.value(f, "time_column"); v != nil {
+		t.TimeColumn, _ = d.text(v, join(path, "time_column"))
+	} else if !f.has("time_column") {
+		d.defaultf(join(path, "time_column"), "the first column of the CSV")
+	}
+	if v := d.value(f, "flow_column"); v != nil {
+		t.FlowColumn, _ = d.text(v, join(path, "flow_column"))
+	} else if !f.has("flow_column") {
+		d.defaultf(join(path, "flow_column"), "the one column whose header contains \"flow\"")
+	}
 	if v := d.value(f, "time_format"); v != nil {
 		if layout, ok := d.text(v, join(path, "time_format")); ok {
 			if msg := checkLayout(layout); msg != "" {
@@ -141,31 +151,41 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 			t.TimeFormat = layout
 		}
 	}
-	flowUnits := []string{"gpm", "m3/h", "L/s"}
-	if v := d.value(f, "flow_unit"); v != nil {
-		t.FlowUnit = d.choice(v, join(path, "flow_unit"), flowUnits)
-	} else if !f.has("flow_unit") {
-		t.FlowUnit = "gpm"
-		if d.units == curves.SI {
-			t.FlowUnit = "m3/h"
+	if v := d.value(f, "time_zone"); v != nil {
+		t.TimeZone, _ = d.text(v, join(path, "time_zone"))
+	}
+	if v := d.value(f, "interval"); v != nil {
+		if m, ok := d.minutes(v, join(path, "interval")); ok {
+			if m <= 0 || m > 24*60 {
+				d.errorf(v, join(path, "interval"), "%s: a logging interval must be above zero and at most a day", v.Value)
+			}
+			t.Interval = time.Duration(m * float64(time.Minute))
 		}
-		d.defaultf(join(path, "flow_unit"), "%s (the file's unit system)", t.FlowUnit)
+	}
+	if v := d.value(f, "max_flow"); v != nil {
+		if fv, ok := d.flow(v, join(path, "max_flow"), ""); ok {
+			if fv.Q == 0 {
+				d.errorf(v, join(path, "max_flow"), "the largest believable flow must be above zero")
+			}
+			t.MaxFlow = fv.Q
+		}
+	}
+	t.Density = d.density
+	if v := d.value(f, "flow_unit"); v != nil {
+		t.FlowUnit = d.choice(v, join(path, "flow_unit"), []string{"gpm", "m3/h", "L/s"})
+	} else if !f.has("flow_unit") {
+		d.defaultf(join(path, "flow_unit"), "read from the flow column's header")
 	}
 	if v := d.value(f, "dp_column"); v != nil {
 		t.DPColumn, _ = d.text(v, join(path, "dp_column"))
 	}
-	dpUnits := []string{"psi", "kPa", "ft", "m"}
 	if v := d.value(f, "dp_unit"); v != nil {
-		t.DPUnit = d.choice(v, join(path, "dp_unit"), dpUnits)
+		t.DPUnit = d.choice(v, join(path, "dp_unit"), []string{"psi", "kPa", "ft", "m"})
 		if !f.has("dp_column") {
 			d.errorf(v, join(path, "dp_unit"), "dp_unit without dp_column: name the differential-pressure column too")
 		}
 	} else if t.DPColumn != "" && !f.has("dp_unit") {
-		t.DPUnit = "psi"
-		if d.units == curves.SI {
-			t.DPUnit = "kPa"
-		}
-		d.defaultf(join(path, "dp_unit"), "%s (the file's unit system)", t.DPUnit)
+		d.defaultf(join(path, "dp_unit"), "read from the DP column's header")
 	}
 	if v := d.value(f, "power_column"); v != nil {
 		t.PowerColumn, _ = d.text(v, join(path, "power_column"))
@@ -175,11 +195,16 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 
 // checkLayout refuses time formats that cannot be Go layouts.
 func checkLayout(layout string) string {
+	if layout == "unix" {
+		return ""
+	}
 	if strings.Contains(layout, "%") {
 		return "time_format is a Go layout written with the reference time 2006-01-02 15:04:05 (e.g. \"2006-01-02 15:04\"), not strftime codes like %Y"
 	}
-	ref := time.Date(2006, 1, 2, 15, 4, 5, 0, time.UTC)
-	if ref.Format(layout) == layout {
+	// Any time other than the reference time formats differently from a
+	// layout that has at least one field.
+	other := time.Date(2011, 3, 4, 7, 8, 9, 0, time.UTC)
+	if other.Format(layout) == layout {
 		return "time_format has no date or time fields: write it with the reference time 2006-01-02 15:04:05 (e.g. \"01/02/2006 15:04\")"
 	}
 	return ""

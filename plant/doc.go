@@ -1,0 +1,164 @@
+// Package plant reads plant files: one YAML file describing one group of
+// parallel centrifugal pumps, the system they serve, its load, its tariff,
+// a drive retrofit and the staging sequence the plant runs today.
+//
+// [Load] and [Parse] check the whole file and return a [Plant] in SI
+// units, or an [ErrorList] naming every problem at once, each with its
+// file, line, column and field path:
+//
+//	plant.yaml:14:17: pumps[0].curve[3].head: 120 ft is above the 112 ft of the point before: the head curve rises with flow (set allow_rising: true if the datasheet really shows a rising curve)
+//	plant.yaml:22:21: pumps[0].motor.rated_output: 10 hp is less than the pump's shaft power at the design head (27.2 hp at 1007 gpm and 90 ft, rated speed), even with service factor 1.15
+//	plant.yaml:40:3: tarif: unknown key "tarif" (did you mean "tariff"?)
+//
+// # A plant file
+//
+//	name: North Campus chilled water     # optional; defaults to the file name
+//	description: three equal pumps        # optional free text
+//	units: US                            # US or SI: how every number below is read
+//
+//	fluid:                               # optional; default water at 20 °C (68 °F)
+//	  temperature: 44                    # °F (US) or °C (SI); density by Kell (1975)
+//	  # specific_gravity: 1.04           # glycol or brine: density = SG × 999.972 kg/m³
+//
+//	pumps:                               # one entry per pump model
+//	  - name: CHWP-1..3
+//	    count: 3                         # identical installed units (default 1)
+//	    rated_speed: 1780                # rpm; also gives the motor's pole count
+//	    curve:                           # datasheet points at rated speed, rising flow
+//	      - {flow: 0,    head: 118}
+//	      - {flow: 400,  head: 112, efficiency: 60}
+//	      - {flow: 1000, head: 91,  efficiency: 84}
+//	      - {flow: 1400, head: 67,  shaft_power: 30.8}
+//	    head_fit: quadratic              # or cubic (4 points or more); default quadratic
+//	    allow_rising: false              # accept a head curve that rises with flow
+//	    speed_correction: true           # Sârbu–Borza step-down below rated speed (default on)
+//	    min_speed: 30%                   # fraction (0.3) or percentage; default 30 %
+//	    max_speed: 100%                  # may exceed 100 %; default 100 %
+//	    min_flow: 300                    # flow, or % of BEP flow (30%); default 30 % of BEP
+//	    runout: 1400                     # flow, or % of BEP flow; default the last point
+//	    motor:
+//	      rated_output: 30               # hp (US) or kW (SI)
+//	      full_load_efficiency: 93.6     # %; default NEMA Premium (10 CFR 431.25 Table 5)
+//	      service_factor: 1.15           # default 1.15
+//	      part_load:                     # optional; default the US DOE loss factor
+//	        - {load: 25%, efficiency: 88.0}
+//	        - {load: 50%, efficiency: 92.5}
+//	        - {load: 100%, efficiency: 93.6}
+//	    drive: variable                  # or fixed; "variable" uses the DOE default losses
+//	    branch_loss: {head: 3, flow: 1000}   # optional: head lost in the unit's own piping
+//
+//	system:
+//	  design_flow: 3000                  # plant flow at design
+//	  design_head: 90                    # head at the pumps at design flow
+//	  dp_control:                        # closed loop held at a remote DP sensor, or …
+//	    control_head: 15 psi             # the setpoint at the sensor
+//	    reset:                           # optional linear setpoint reset
+//	      low_flow: 40%                  # at and below this flow (or % of design flow) …
+//	      low_head: 8 psi                # … the control head is this,
+//	      high_flow: 80%                 # rising to control_head at and above this flow
+//	  # fixed_curve:                     # … an open or fixed system: static + k Q²
+//	  #   static_head: 12
+//	  plant_min_flow: 600                # optional: chiller/boiler minimum held by a bypass
+//
+//	profile:                             # bins, or a trend
+//	  bins:
+//	    - {flow: 25%, hours: 900}        # flow or % of design flow; hours a year
+//	    - {flow: 1650, hours: 1700}
+//	  # trend:
+//	  #   file: chilled-water-trend.csv  # relative to the plant file
+//	  #   time_column: timestamp         # default the first column
+//	  #   time_format: "2006-01-02 15:04"   # Go layout or unix; default: common ones tried
+//	  #   time_zone: America/Chicago     # IANA zone of stamps without offset; default UTC
+//	  #   interval: 60                   # minutes (or "15 min", "1 h"); default the median step
+//	  #   flow_column: plant_flow_gpm    # default the one header containing "flow"
+//	  #   flow_unit: gpm                 # gpm, m3/h or L/s; default read from the header
+//	  #   max_flow: 6000                 # rows above are dropped; default 3 × 99th percentile
+//	  #   dp_column: loop_dp_psi         # optional
+//	  #   dp_unit: psi                   # psi, kPa, ft or m; default read from the header
+//	  #   power_column: pump_kw          # optional, measured total pump kW
+//
+//	tariff:
+//	  currency: USD
+//	  energy_price: 0.092                # per kWh: flat, or outside every period
+//	  periods:                           # optional time-of-use periods, hours [start, end)
+//	    - {name: on-peak, price: 0.168, start_hour: 12, end_hour: 18, days: weekdays}
+//	  demand_charge: 13.75               # optional, per kW of each month's peak
+//	  emissions_factor: 0.39             # optional, kg CO2e per kWh
+//
+//	retrofit:                            # optional
+//	  drive_cost: 7800                   # installed cost per drive
+//	  other_cost: 6500                   # default 0
+//	  life_years: 15                     # default 15
+//	  discount_rate: 5%                  # real, per year; default 0 %
+//	  escalation: 2.5%                   # energy price, per year; default 0 %
+//
+//	sequence:                            # optional: the sequence the plant runs today
+//	  stage_up_speed: 95%                # add a unit above this speed …
+//	  stage_down_speed: 45%              # … drop one below this
+//	  stage_up_delay: 5                  # minutes (or "90 s"); default 0
+//	  stage_down_delay: 10
+//
+// Keys are fixed: a key the format does not know is an error, with the
+// nearest known key suggested. A key given with no value is an error too;
+// leave the key out to take its default.
+//
+// # Units
+//
+// With units: US every flow is in gpm, every head in ft, every power (motor
+// rating, shaft power) in hp and every temperature in °F; with units: SI,
+// flows are in m³/h, heads in m, powers in kW and temperatures in °C. A
+// bare number is read in those units. A suffix may say so explicitly or
+// pick the other unit the trade uses in that system:
+//
+//	US   flow "1000 gpm"            head "90 ft" or "15 psi"     power "30 hp"
+//	SI   flow "250 m³/h" or "70 L/s" head "26 m" or "150 kPa"    power "55 kW"
+//
+// A head written as a pressure is converted with the fluid's density:
+// h = p / (ρ g), so 15 psi is 34.6 ft of water at 44 °F and less of a
+// denser glycol. A unit of the other system ("25 L/s" in a US file) is an
+// error. Tariff prices are per kWh and per kW in either system.
+//
+// Efficiencies and losses are written in percent (84 or "84%"); a value of
+// 1 % or less is refused as a fraction typed where a percentage belongs.
+// Speeds, loads and rates are fractions (0.95) or percentages with a sign
+// ("95%"); a bare number too large to be a fraction (95) is refused.
+// Flows for min_flow and runout may be "% of BEP flow" ("30%"); flows in
+// bins, reset and plant_min_flow may be "% of design flow".
+//
+// # Curve points
+//
+// Give at least three points (four for a cubic head fit) in order of rising
+// flow, each with a head and, where the flow is above zero, an efficiency
+// or a shaft power (at water of 998.2 kg/m³, the datasheet convention).
+// The fits and their residuals are in [curves.Pump].
+//
+// # What is checked
+//
+// Besides keys, types and ranges, the loader checks the physics it can:
+// efficiencies above 100 %, negative flows, a minimum speed above the
+// maximum, fewer than three points, duplicate or unsorted flows, a head
+// curve rising with flow, a best efficiency point outside the points, a
+// minimum flow at or above BEP, a design head above the shutoff head of
+// every pump at its maximum speed, a motor smaller (even with its service
+// factor) than the pump's shaft power at the design head, a control head
+// or static head above the design head, reset flows out of order,
+// overlapping tariff periods, bins adding up to more than a year, and unit
+// mistakes that show: a pump that would need ten times its motor at its
+// own BEP, or a design flow ten times what every unit can deliver. A file
+// larger than [MaxFileSize], an empty file and a binary file are refused
+// before the YAML parser sees them.
+//
+// # Defaults and warnings
+//
+// Every value the loader fills in is listed in Plant.Defaults in plain
+// words with its source (e.g. the motor efficiency from the NEMA Premium
+// table), so reports can flag it. Plant.Warnings lists what is usable but
+// questionable, such as a motor running into its service factor at the
+// design head or a unit that cannot reach the design head.
+//
+// The defaults (minimum speed 30 %, minimum flow 30 % of BEP, service
+// factor 1.15) are common practice, not the equipment's limits: minimum
+// flow and speed, cavitation (NPSH), motor cooling at low speed and the
+// chiller or boiler minimum flow must be confirmed with the manufacturers
+// before a sequence is changed.
+package plant
