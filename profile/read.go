@@ -68,7 +68,7 @@ type reader struct {
 	delim              byte
 	header             []string
 	ti, fi, di, pi     int // column indices; -1 when unmapped
-	need               int // fields a row must have
+	need               int // fields a row must have: up to the time and flow columns
 	zoned              bool
 	hdrLine, hdrStarts int
 }
@@ -328,7 +328,7 @@ func (p *reader) mapColumns(line string, lineNo int) error {
 		p.dp = dpUnits[u]
 		p.spec.DPUnit = u
 	}
-	p.need = max(p.ti, p.fi, p.di, p.pi) + 1
+	p.need = max(p.ti, p.fi) + 1 // a row may stop before its optional cells
 	return nil
 }
 
@@ -397,7 +397,7 @@ func (p *reader) parseValues(rows []*row) {
 			continue
 		}
 		r.flow = v * p.flowMul
-		if p.di >= 0 && r.fields[p.di] != "" {
+		if p.di >= 0 && p.di < len(r.fields) && r.fields[p.di] != "" {
 			v, ok := number(r.fields[p.di], p.delim)
 			switch {
 			case !ok:
@@ -408,7 +408,7 @@ func (p *reader) parseValues(rows []*row) {
 				r.dp, r.hasDP = float64(p.dp.head(v, p.density)), true
 			}
 		}
-		if p.pi >= 0 && r.fields[p.pi] != "" {
+		if p.pi >= 0 && p.pi < len(r.fields) && r.fields[p.pi] != "" {
 			v, ok := number(r.fields[p.pi], p.delim)
 			switch {
 			case !ok:

@@ -17,7 +17,7 @@ type Reason int
 // Dropping reasons: the row is not used. Each dropped row has exactly one,
 // the first found in this order.
 const (
-	TooFewFields   Reason = iota // fewer fields than the mapped columns need
+	TooFewFields   Reason = iota // too few fields to reach the time and flow columns
 	TooManyFields                // non-empty fields beyond the header's
 	MixedDelimiter               // the row splits on another delimiter than the header
 	BlankTime                    // empty timestamp cell
