@@ -51,7 +51,7 @@ func decode(data []byte) (text, warning string, err error) {
 		return "", "", fmt.Errorf("%w: NUL byte at offset %d", ErrBinary, i)
 	}
 	if n := controlBytes(data); n > 0 {
-		return "", "", fmt.Errorf("%w: %d control bytes in the first %d", ErrBinary, n, min(len(data), sniffLen))
+		return "", "", fmt.Errorf("%w: %d control bytes in its first %d bytes", ErrBinary, n, min(len(data), sniffLen))
 	}
 	if !utf8.Valid(data) {
 		data = latin1(data)

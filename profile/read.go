@@ -70,6 +70,7 @@ type reader struct {
 	ti, fi, di, pi     int // column indices; -1 when unmapped
 	need               int // fields a row must have: up to the time and flow columns
 	zoned              bool
+	alt                byte // the first other delimiter a row split on
 	hdrLine, hdrStarts int
 }
 
@@ -320,6 +321,7 @@ func (p *reader) mapColumns(line string, lineNo int) error {
 		p.flowMul = flowUnits[u]
 		p.spec.FlowUnit = u
 	}
+	p.rep.FlowUnit, p.rep.flowMul = p.spec.FlowUnit, p.flowMul
 	if p.di >= 0 && p.dp == (dpUnit{}) {
 		u := unitFromHeader(header[p.di], dpUnits)
 		if u == "" {
@@ -356,6 +358,9 @@ func (p *reader) splitRows(lines []string, first int) []*row {
 				if d != p.delim {
 					if g, _ := splitFields(l, d); len(g) >= p.need {
 						r.drop = MixedDelimiter
+						if p.alt == 0 {
+							p.alt = d
+						}
 					}
 				}
 			}
@@ -576,14 +581,27 @@ func (p *reader) tally(rows []*row) {
 	}
 }
 
+func (p *reader) issue(reason Reason) Issue {
+	for _, is := range p.rep.Issues {
+		if is.Reason == reason {
+			return is
+		}
+	}
+	return Issue{Reason: reason}
+}
+
 // unusable builds the error for a file whose rows were all dropped.
 func (p *reader) unusable(rows []*row) error {
 	r0 := rows[0]
 	if n := p.rep.Count(MixedDelimiter); 2*n >= p.rep.Rows {
-		return p.errAt(r0.line, 0, "", fmt.Errorf("%w: the header splits on %s but %d of %d rows do not (%s)",
-			ErrMixedDelims, delimName(p.delim), n, p.rep.Rows, lineList(p.rep.Issues[slices.IndexFunc(p.rep.Issues, func(is Issue) bool { return is.Reason == MixedDelimiter })])))
+		return p.errAt(r0.line, 0, "", fmt.Errorf("%w: the header splits on %s but %d of %d rows split on %s (%s)",
+			ErrMixedDelims, delimName(p.delim), n, p.rep.Rows, delimName(p.alt), lineList(p.issue(MixedDelimiter))))
 	}
-	return p.errAt(r0.line, 0, "", fmt.Errorf("%w: %s", ErrNoUsableRows, p.rep.Summary()))
+	msg := p.rep.Summary()
+	if i := slices.IndexFunc(rows, func(r *row) bool { return r.drop == BadTime }); i >= 0 {
+		msg += fmt.Sprintf("; the first bad timestamp %s does not fit the layout %q", quoteCut(rows[i].fields[p.ti]), p.rep.Layout)
+	}
+	return p.errAt(r0.line, 0, "", fmt.Errorf("%w: %s", ErrNoUsableRows, msg))
 }
 
 func delimName(d byte) string {
@@ -606,7 +624,11 @@ func (p *reader) build(kept []*row) (*Trend, error) {
 	iv := p.spec.Interval
 	if iv == 0 {
 		if len(kept) < 2 {
-			return nil, p.errAt(kept[0].line, 0, "", fmt.Errorf("%w: only one usable row; give the trend's interval", ErrInterval))
+			msg := "only one usable row; give the trend's interval"
+			if p.rep.Dropped > 0 {
+				msg += " (" + p.rep.Summary() + ")"
+			}
+			return nil, p.errAt(kept[0].line, 0, "", fmt.Errorf("%w: %s", ErrInterval, msg))
 		}
 		steps := make([]time.Duration, len(kept)-1)
 		for i := range steps {

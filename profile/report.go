@@ -108,6 +108,8 @@ type Report struct {
 	Delimiter byte        // field delimiter found in the header
 	Layout    string      // timestamp layout used
 	FlowLimit curves.Flow // flows above this were dropped as absurd, m³/s
+	FlowUnit  string      // the file's flow unit, for messages
+	flowMul   float64     // m³/s per FlowUnit
 
 	Gaps         int           // stretches with no rows
 	MissingHours float64       // hours in those gaps
@@ -139,9 +141,14 @@ func (r *Report) LinesOf(reason Reason) []int {
 func (r *Report) Summary() string {
 	var parts []string
 	for _, is := range r.Issues {
-		if is.Reason.Drops() {
-			parts = append(parts, fmt.Sprintf("%d %s (%s)", is.Count, is.Reason, lineList(is)))
+		if !is.Reason.Drops() {
+			continue
 		}
+		detail := lineList(is)
+		if is.Reason == AbsurdFlow && r.flowMul > 0 {
+			detail = fmt.Sprintf("above %.4g %s; %s", float64(r.FlowLimit)/r.flowMul, r.FlowUnit, detail)
+		}
+		parts = append(parts, fmt.Sprintf("%d %s (%s)", is.Count, is.Reason, detail))
 	}
 	s := fmt.Sprintf("%d rows, %d kept, %d dropped", r.Rows, r.Kept, r.Dropped)
 	if len(parts) > 0 {
