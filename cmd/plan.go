@@ -126,6 +126,14 @@ func planRun(opts *PlanOptions) error {
 			}
 		}
 	}
+	if in.trend != nil && in.binned == nil && in.plant.DesignFlow > 0 {
+		// Also solve the trend binned at 5 % of design flow, to show the
+		// binning error against the point-by-point total.
+		if b, err := in.trend.Bin(in.plant.DesignFlow / 20); err == nil {
+			in.binned = b
+			po.Binned = optimize.StepsFromBinned(b)
+		}
+	}
 	pl, err := optimize.NewPlan(in.plant, in.steps, po)
 	if err != nil {
 		if strings.Contains(err.Error(), "baseline") {
@@ -274,7 +282,7 @@ func writeProfileLine(out io.Writer, in *planInput) {
 		hours += s.Hours
 	}
 	switch {
-	case in.binned != nil:
+	case in.binned != nil && len(in.binned.Bins) == len(in.steps):
 		fmt.Fprintf(out, "Profile: trend %s binned into %d bins of %s, %.0f h (binning error estimate %.2f %% on a cube law)\n",
 			in.trend.Name, len(in.binned.Bins), in.plant.Units.FormatFlow(in.binned.Width), hours, 100*in.binned.CubeError)
 	case in.trend != nil:
@@ -287,6 +295,11 @@ func writeProfileLine(out io.Writer, in *planInput) {
 }
 
 func writeTrendChecks(out io.Writer, in *planInput, pl *optimize.Plan) {
+	if pl.BinnedKWh > 0 {
+		lo := pl.Outcomes[0].Energy.KWh
+		fmt.Fprintf(out, "- Binning: every interval solved gives %.0f kWh/yr for the lowest-power staging; %d bins of %s give %.0f kWh/yr (%+.2f %%; the cube-law estimate of the binning error is %.2f %%)\n",
+			lo, len(in.binned.Bins), in.plant.Units.FormatFlow(in.binned.Width), pl.BinnedKWh, 100*(pl.BinnedKWh/lo-1), 100*in.binned.CubeError)
+	}
 	if !in.trend.HasPower() {
 		return
 	}

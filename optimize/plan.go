@@ -30,6 +30,9 @@ type PlanOptions struct {
 	// Extra strategies to compare (e.g. a derived setpoint sequence), each
 	// with its key.
 	Extra []Keyed
+	// Binned, when set, are the same profile's steps binned by flow: the
+	// lowest-power staging is also run on them and the totals compared.
+	Binned []Step
 	// Progress, when set, is called before each strategy runs.
 	Progress func(label string, i, n int)
 }
@@ -68,6 +71,9 @@ type Plan struct {
 	PartLoad []PartLoadCheck
 	UnitOut  *UnitOutCheck
 	Range    []RangeCase // low and high cases; the expected case is the Outcome
+	// BinnedKWh is the lowest-power staging's energy on PlanOptions.Binned
+	// (0 when none was given), to compare with the point-by-point total.
+	BinnedKWh float64
 	Warnings []string
 }
 
@@ -181,6 +187,9 @@ func NewPlan(p *plant.Plant, steps []Step, opt PlanOptions) (*Plan, error) {
 	}
 	if uo, err := CheckUnitOut(p, Options{}); err == nil {
 		pl.UnitOut = &uo
+	}
+	if len(opt.Binned) > 0 {
+		pl.BinnedKWh = Sum(ks[0].Strategy.Run(opt.Binned), opt.Binned).KWh
 	}
 	sens := opt.Sensitivities
 	if sens == nil {
