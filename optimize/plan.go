@@ -74,7 +74,7 @@ type Plan struct {
 	// BinnedKWh is the lowest-power staging's energy on PlanOptions.Binned
 	// (0 when none was given), to compare with the point-by-point total.
 	BinnedKWh float64
-	Warnings []string
+	Warnings  []string
 }
 
 // Strategies returns the standard strategies for a plant, in report order.
