@@ -616,6 +616,9 @@ func (d *deriver) fillStages(out *Setpoints, grid []curves.Flow) {
 		}
 		lo, hi := d.at(st.Counts, st.Low), d.at(st.Counts, st.High)
 		st.LowLimit, st.HighLimit = pointLimit(&lo), pointLimit(&hi)
+		if i == 0 && d.p.MinFlow > 0 && st.Low <= d.p.MinFlow {
+			st.LowLimit = LimitPlantBypass
+		}
 		st.LowSpeed, st.HighSpeed = d.speedOf(lo), d.speedOf(hi)
 		st.Served = lo.Status == Served && hi.Status == Served
 		for _, q := range grid {
