@@ -108,9 +108,10 @@ func clip(s string) string {
 
 // fields is a decoded mapping: its keys, checked against the allowed set.
 type fields struct {
-	node *yaml.Node
-	path string
-	vals map[string]*yaml.Node
+	node      *yaml.Node
+	path      string
+	vals      map[string]*yaml.Node
+	suggested map[string]bool // allowed keys offered for a misspelt key
 }
 
 // has reports whether the key was given (with any value).
@@ -128,7 +129,7 @@ func (d *decoder) mapping(n *yaml.Node, path, what string, allowed ...string) *f
 		d.errorf(n, path, "must be a mapping of keys (%s), not %s", what, kindName(n))
 		return nil
 	}
-	f := &fields{node: n, path: path, vals: map[string]*yaml.Node{}}
+	f := &fields{node: n, path: path, vals: map[string]*yaml.Node{}, suggested: map[string]bool{}}
 	keyLine := map[string]int{}
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := d.resolve(n.Content[i]), n.Content[i+1]
@@ -146,6 +147,9 @@ func (d *decoder) mapping(n *yaml.Node, path, what string, allowed ...string) *f
 		}
 		if !contains(allowed, key) {
 			d.errorf(k, join(path, key), "%s", unknownKey(key, allowed))
+			if s := nearest(key, allowed); s != "" {
+				f.suggested[s] = true
+			}
 			continue
 		}
 		if line, dup := keyLine[key]; dup {
@@ -205,7 +209,11 @@ func (d *decoder) required(f *fields, key, what string) *yaml.Node {
 	}
 	v, ok := f.vals[key]
 	if !ok {
-		d.errorf(f.node, join(f.path, key), "missing: %s is required", what)
+		// A misspelling of this key was already reported with the
+		// suggestion; saying it is missing as well would be noise.
+		if !f.suggested[key] {
+			d.errorf(f.node, join(f.path, key), "missing: %s is required", what)
+		}
 		return nil
 	}
 	v = d.resolve(v)
@@ -378,7 +386,10 @@ func (f flowValue) of(base curves.Flow) curves.Flow {
 
 // flowUnits are the flow suffixes accepted in each unit system.
 func (d *decoder) flowUnits() []string {
-	if d.units == curves.US {
+	switch {
+	case !d.unitsKnown:
+		return []string{d.units.FlowUnit(), "gpm", "L/s"}
+	case d.units == curves.US:
 		return []string{"gpm"}
 	}
 	return []string{"m³/h", "L/s"}
@@ -419,7 +430,12 @@ func (d *decoder) flow(n *yaml.Node, path, pctOf string) (flowValue, bool) {
 func (d *decoder) head(n *yaml.Node, path string) (curves.Head, bool) {
 	units := []string{"m", "kPa"}
 	hint := "a head in m, or a pressure in kPa"
-	if d.units == curves.US {
+	switch {
+	case !d.unitsKnown:
+		// Without a unit system, accept either system's units so that the
+		// missing units key is the one problem reported.
+		units = []string{"m", "kPa", "ft", "psi"}
+	case d.units == curves.US:
 		units = []string{"ft", "psi"}
 		hint = "a head in ft, or a pressure in psi"
 	}
@@ -436,6 +452,8 @@ func (d *decoder) head(n *yaml.Node, path string) (curves.Head, bool) {
 		return curves.PressureToHead(v*curves.PSI, d.density), true
 	case "kPa":
 		return curves.PressureToHead(v*curves.KPa, d.density), true
+	case "ft":
+		return curves.Head(v * curves.Foot), true
 	}
 	return d.units.HeadIn(v), true
 }
@@ -443,7 +461,11 @@ func (d *decoder) head(n *yaml.Node, path string) (curves.Head, bool) {
 // power reads a power in hp (US) or kW (SI); must be positive.
 func (d *decoder) power(n *yaml.Node, path string) (curves.Power, bool) {
 	u := d.units.PowerUnit()
-	v, _, ok := d.quantity(n, path, "a power in "+u, u)
+	units := []string{u}
+	if !d.unitsKnown {
+		units = []string{"kW", "hp"}
+	}
+	v, _, ok := d.quantity(n, path, "a power in "+u, units...)
 	if !ok {
 		return 0, false
 	}
@@ -457,7 +479,11 @@ func (d *decoder) power(n *yaml.Node, path string) (curves.Power, bool) {
 // temperature reads °F (US) or °C (SI) and returns °C.
 func (d *decoder) temperature(n *yaml.Node, path string) (float64, bool) {
 	u := d.units.TempUnit()
-	v, _, ok := d.quantity(n, path, "a temperature in "+u, u)
+	units := []string{u}
+	if !d.unitsKnown {
+		units = []string{"°C", "°F"}
+	}
+	v, _, ok := d.quantity(n, path, "a temperature in "+u, units...)
 	if !ok {
 		return 0, false
 	}

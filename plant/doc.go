@@ -6,9 +6,9 @@
 // units, or an [ErrorList] naming every problem at once, each with its
 // file, line, column and field path:
 //
-//	plant.yaml:14:17: pumps[0].curve[3].head: 120 ft is above the 112 ft of the point before: the head curve rises with flow (set allow_rising: true if the datasheet really shows a rising curve)
-//	plant.yaml:22:21: pumps[0].motor.rated_output: 10 hp is less than the pump's shaft power at the design head (27.2 hp at 1007 gpm and 90 ft, rated speed), even with service factor 1.15
-//	plant.yaml:40:3: tarif: unknown key "tarif" (did you mean "tariff"?)
+//	plant.yaml:8:16: pumps[0].min_speed: minimum speed 110 % is above the maximum speed 100 %
+//	plant.yaml:18:21: pumps[0].motor.rated_output: 10 hp is less than the pump's shaft power at the design head (27.43 hp at 1011 gpm and 90 ft, rated speed), even with service factor 1.15
+//	plant.yaml:19:7: pumps[0].motor.servise_factor: unknown key "servise_factor" (did you mean "service_factor"?)
 //
 // # A plant file
 //

@@ -99,7 +99,10 @@ func checkBytes(data []byte) string {
 	return ""
 }
 
-var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
+var (
+	yamlLine      = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
+	unknownAnchor = regexp.MustCompile(`unknown anchor '([^']*)' referenced`)
+)
 
 // parseYAML decodes exactly one YAML document into a node tree.
 func parseYAML(name string, data []byte) (root *yaml.Node, perr *Error) {
@@ -142,12 +145,28 @@ func syntaxError(name string, data []byte, err error) *Error {
 		msg = m[2]
 	} else {
 		msg = strings.TrimPrefix(msg, "yaml: ")
+		if m := unknownAnchor.FindStringSubmatch(msg); m != nil {
+			e.Line, e.Column = locate(data, "*"+m[1])
+		}
 	}
 	e.Msg = "YAML syntax: " + msg
 	if bytes.ContainsRune(data, '\t') && strings.Contains(msg, "cannot start any token") {
 		e.Msg += " (tabs are not allowed for indentation; use spaces)"
 	}
 	return e
+}
+
+// locate returns the 1-based line and column of the first occurrence of
+// s in data, or 0, 0.
+func locate(data []byte, s string) (line, col int) {
+	i := bytes.Index(data, []byte(s))
+	if i < 0 {
+		return 0, 0
+	}
+	before := data[:i]
+	line = bytes.Count(before, []byte("\n")) + 1
+	col = utf8.RuneCount(before[bytes.LastIndexByte(before, '\n')+1:]) + 1
+	return line, col
 }
 
 // plant decodes the whole file.
