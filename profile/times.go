@@ -2,6 +2,7 @@ package profile
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -67,15 +68,34 @@ func (p *reader) chooseLayout(rows []*row) string {
 	if p.spec.TimeFormat != "" {
 		return p.spec.TimeFormat
 	}
-	counts := make([]int, len(layouts))
+	// Count on the first stamps, then only the layouts that fit at least
+	// half as many as the best of them count over the whole file (a full
+	// count matters: day/month order may show only on the 13th).
+	var stamps []string
 	for _, r := range rows {
-		if r.drop >= 0 {
-			continue
+		if r.drop < 0 {
+			stamps = append(stamps, r.fields[p.ti])
 		}
-		s := r.fields[p.ti]
+	}
+	const probe = 100
+	counts := make([]int, len(layouts))
+	for _, s := range stamps[:min(probe, len(stamps))] {
 		for i, l := range layouts {
 			if _, err := time.Parse(l.layout, s); err == nil {
 				counts[i]++
+			}
+		}
+	}
+	top := slices.Max(counts)
+	if len(stamps) > probe {
+		for i, l := range layouts {
+			if top > 0 && 2*counts[i] < top {
+				continue // a layout that missed most of the first stamps
+			}
+			for _, s := range stamps[probe:] {
+				if _, err := time.Parse(l.layout, s); err == nil {
+					counts[i]++
+				}
 			}
 		}
 	}
