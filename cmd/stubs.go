@@ -1,16 +1,14 @@
 package cmd
 
 import (
-	"fmt"
-
 	"wattstage/optimize"
 	"wattstage/plant"
+	"wattstage/workbook"
 )
 
 // derivedStrategy returns the derived setpoint sequence as an extra
 // strategy (wired in when setpoints land).
 func derivedStrategy(p *plant.Plant) []optimize.Keyed { return nil }
 
-func writeWorkbook(path, input string, force bool, in *planInput, pl *optimize.Plan) error {
-	return fmt.Errorf("workbook writer not wired yet")
-}
+// stagingFor returns the staging sheet's content (wired in when setpoints land).
+func stagingFor(p *plant.Plant) workbook.Staging { return workbook.Staging{} }

@@ -67,10 +67,12 @@ type Plan struct {
 	Plant    *plant.Plant
 	Steps    []Step
 	Outcomes []Outcome
-	Baseline int // index into Outcomes
-	PartLoad []PartLoadCheck
-	UnitOut  *UnitOutCheck
-	Range    []RangeCase // low and high cases; the expected case is the Outcome
+	// Strategies are the strategies that made the outcomes, in their order.
+	Strategies []Keyed
+	Baseline   int // index into Outcomes
+	PartLoad   []PartLoadCheck
+	UnitOut    *UnitOutCheck
+	Range      []RangeCase // low and high cases; the expected case is the Outcome
 	// BinnedKWh is the lowest-power staging's energy on PlanOptions.Binned
 	// (0 when none was given), to compare with the point-by-point total.
 	BinnedKWh float64
@@ -132,7 +134,7 @@ func NewPlan(p *plant.Plant, steps []Step, opt PlanOptions) (*Plan, error) {
 	if base == "" {
 		base = KeyThrottled
 	}
-	pl := &Plan{Plant: p, Steps: steps, Baseline: -1}
+	pl := &Plan{Plant: p, Steps: steps, Baseline: -1, Strategies: ks}
 	for i, k := range ks {
 		if opt.Progress != nil {
 			opt.Progress(k.Strategy.Name(), i, len(ks))

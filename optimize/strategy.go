@@ -34,6 +34,9 @@ type Run struct {
 	Changes int      // stage changes (counted in time order; 0 for bins)
 	Drives  int      // units on variable-speed drives in this strategy
 	Note    string   // how the strategy runs the plant, in plain words
+	// Plant is the plant the points' model indices refer to: a strategy may
+	// run a variant (fixed-speed, partial retrofit) of the given plant.
+	Plant *plant.Plant
 }
 
 var (
@@ -57,7 +60,7 @@ func NewLowest(label string, p *plant.Plant, opt Options) *Lowest {
 
 func (l *Lowest) Name() string { return l.Label }
 func (l *Lowest) Run(steps []Step) Run {
-	r := Run{Name: l.Label, Drives: drives(l.Plant),
+	r := Run{Name: l.Label, Drives: drives(l.Plant), Plant: l.Plant,
 		Note: "the lowest-power count of running units and their speeds at every step"}
 	prev := -1
 	for _, st := range steps {
@@ -170,7 +173,7 @@ func (s *Staged) fewest(load curves.Flow) (Result, int) {
 }
 
 func (s *Staged) Run(steps []Step) Run {
-	r := Run{Name: s.Label, Drives: drives(s.Plant),
+	r := Run{Name: s.Label, Drives: drives(s.Plant), Plant: s.Plant,
 		Note: "one common speed for the running units; stage up above the stage-up speed, down below the stage-down speed"}
 	n := 0 // running units; 0 = not started
 	var upSince, downSince time.Time
@@ -304,7 +307,7 @@ func (t *Throttled) solve(load curves.Flow) Result {
 }
 
 func (t *Throttled) Run(steps []Step) Run {
-	r := Run{Name: t.Label, Note: "fixed speed; a valve throttles the extra head; the fewest units that serve the flow"}
+	r := Run{Name: t.Label, Plant: t.Plant, Note: "fixed speed; a valve throttles the extra head; the fewest units that serve the flow"}
 	prev := -1
 	for _, st := range steps {
 		res := t.solve(st.Load)
@@ -332,7 +335,7 @@ func NewConstantBypass(label string, p *plant.Plant) *ConstantBypass {
 func (c *ConstantBypass) Name() string { return c.Label }
 
 func (c *ConstantBypass) Run(steps []Step) Run {
-	r := Run{Name: c.Label, Note: "constant flow at the design point all year; the load's unused flow bypasses it"}
+	r := Run{Name: c.Label, Plant: c.Plant, Note: "constant flow at the design point all year; the load's unused flow bypasses it"}
 	for _, st := range steps {
 		res := c.design
 		res.Units = append([]Unit(nil), c.design.Units...)

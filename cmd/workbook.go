@@ -1,0 +1,39 @@
+package cmd
+
+import (
+	"errors"
+	"fmt"
+
+	"wattstage/handover"
+	"wattstage/optimize"
+	"wattstage/workbook"
+)
+
+// writeWorkbook maps the plan into the workbook and writes it atomically.
+func writeWorkbook(path, input string, force bool, in *planInput, pl *optimize.Plan) error {
+	hi := handover.Input{Plant: in.plant, Plan: pl, Strategies: pl.Strategies, LoadSteps: pl.Steps,
+		Staging: stagingFor(in.plant)}
+	if in.binned != nil && len(pl.Steps) != len(in.binned.Bins) {
+		hi.LoadSteps = optimize.StepsFromBinned(in.binned)
+		hi.LoadNote = fmt.Sprintf("Load points show the trend binned into %d bins of %s (annual totals are from every interval; wattstage plan --json gives every interval).",
+			len(in.binned.Bins), in.plant.Units.FormatFlow(in.binned.Width))
+	}
+	rep, err := handover.Build(hi)
+	if err != nil {
+		return err
+	}
+	inputs := []string{input}
+	if in.trend != nil {
+		inputs = append(inputs, in.trend.Name)
+	}
+	err = workbook.Write(path, rep, workbook.Options{Force: force, InputPaths: inputs})
+	switch {
+	case errors.Is(err, workbook.ErrExists):
+		return badInputf("-o %s: the file exists; use --force to replace it", path)
+	case errors.Is(err, workbook.ErrSameAsInput):
+		return badInputf("-o %s: the output would overwrite an input file", path)
+	case err != nil:
+		return fmt.Errorf("writing the workbook %s: %w (any earlier file there is unchanged)", path, err)
+	}
+	return nil
+}
