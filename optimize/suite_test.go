@@ -29,8 +29,9 @@ type suitePump struct {
 	// effK is −η''(1)/η_b in x = Q/Q_BEP: 2 is the usual parabola through the
 	// origin, smaller is a flatter top. 0 means 2.
 	effK            float64
-	humped          bool // cubic head H₀/H_b = 1.1 + 0.4x − 0.4x² − 0.1x³, peak 1.19 at x ≈ 0.43
-	speedCorrection bool // Sârbu–Borza step-down below rated speed
+	lastX           float64 // last datasheet flow over BEP flow; 0 means 1.3
+	humped          bool    // cubic head H₀/H_b = 1.1 + 0.4x − 0.4x² − 0.1x³, peak 1.19 at x ≈ 0.43
+	speedCorrection bool    // Sârbu–Borza step-down below rated speed
 }
 
 func (s suitePump) headAt(x float64) float64 {
@@ -58,7 +59,11 @@ func (s suitePump) effAt(x float64) float64 {
 func (s suitePump) build(t testing.TB) *curves.Pump {
 	t.Helper()
 	var pts []curves.PumpPoint
-	for _, x := range []float64{0, 0.25, 0.5, 0.75, 1, 1.15, 1.3} {
+	last := s.lastX
+	if last == 0 {
+		last = 1.3
+	}
+	for _, x := range []float64{0, 0.25, 0.5, 0.75, 1, 1.15, last} {
 		pts = append(pts, curves.PumpPoint{
 			Flow: curves.Flow(x) * s.bepFlow,
 			Head: curves.Head(s.headAt(x)) * s.bepHead,
@@ -267,6 +272,8 @@ func suitePlants(t testing.TB) []*plant.Plant {
 			mod(M, func(m *suiteModel) { m.count, m.drive = 2, iecDrive(t) })}},
 		{name: "all-fixed-speed", system: fixedCurve(0.25, 30, 0.6), minFlow: 0.03, models: []suiteModel{
 			mod(L, func(m *suiteModel) { m.drive = curves.FixedSpeed{} })}},
+		{name: "wide-runout", system: dp(0.30, 30, 0.3), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.pump.lastX, m.runoutX, m.minFlowX, m.motorHP = 1.5, 1.45, 0.2, 75 })}},
 		{name: "three-models", system: dp(0.17, 30, 0.4), models: []suiteModel{n(L, 1), M, S}},
 		{name: "constant-chain-zero-control", system: dp(0.25, 30, 0), models: []suiteModel{
 			mod(L, func(m *suiteModel) {
@@ -553,4 +560,126 @@ func suiteInvariants(p *plant.Plant, load curves.Flow, common bool, r *optimize.
 		fail("electrical %.6g W below hydraulic %.6g W", float64(r.Power), float64(r.Hydraulic))
 	}
 	return bad
+}
+
+// With zero control head the control curve is H ∝ Q², the affinity
+// parabola; with constant motor and drive efficiencies and no limit
+// binding, the best state at λQ is the best at Q with speeds and flows ×λ,
+// so total power follows the cube law exactly (affinity laws, every pump
+// handbook [P]; DOMAIN §3), and so does the best count.
+func TestCubeLawZeroControlHead(t *testing.T) {
+	p := suitePlantNamed(t, "constant-chain-zero-control")
+	for _, common := range []bool{false, true} {
+		s := optimize.New(p, optimize.Options{CommonSpeed: common})
+		base := curves.Flow(0.20)
+		r0 := s.Solve(base)
+		if r0.Status != optimize.Served {
+			t.Fatalf("common=%v: base point unmet: %s", common, r0.Reason)
+		}
+		for _, lam := range []float64{0.3, 0.5, 0.7, 0.9, 1.1, 1.2} {
+			r := s.Solve(base * curves.Flow(lam))
+			want := float64(r0.Power) * lam * lam * lam
+			if r.Status != optimize.Served || math.Abs(float64(r.Power)/want-1) > 1e-7 {
+				t.Errorf("common=%v λ = %g: %v %.9g W, cube law from %.9g W gives %.9g W", common, lam, r.Status, float64(r.Power), float64(r0.Power), want)
+				continue
+			}
+			if fmt.Sprint(r.Counts) != fmt.Sprint(r0.Counts) {
+				t.Errorf("common=%v λ = %g: counts %v, at the base point %v", common, lam, r.Counts, r0.Counts)
+			}
+			for _, u := range r.Units {
+				if math.Abs(float64(u.Head)/float64(r.RequiredHead)-1) > 1e-7 {
+					t.Errorf("common=%v λ = %g: unit head %.9g m off the control curve %.9g m", common, lam, float64(u.Head), float64(r.RequiredHead))
+				}
+			}
+		}
+	}
+}
+
+// For n identical units on equal speeds the switch from n to n+1 running is
+// best where their total input powers are equal at the same flow and head
+// (Viholainen et al., Energy Efficiency 6 (2013) 495–509, DOMAIN §7 [M]).
+// The equal-power flow is found here by bisection on the two fixed-count
+// power curves computed directly (one speed root per point, no search); the
+// optimiser's switch is found by bisection on its running count, and the two
+// must coincide. The premise (equal split optimal near the switch) is
+// checked against the brute-force reference first.
+func TestSwitchAtEqualPower(t *testing.T) {
+	found := 0
+	for _, name := range []string{"identical-3", "two-pole", "branch-losses", "steep-curves", "wide-runout", "flat-curves"} {
+		p := suitePlantNamed(t, name)
+		s := optimize.New(p, optimize.Options{})
+		powerN := func(n int, q curves.Flow) (curves.Power, bool) {
+			pw, _, ok := refEqualSplit(p, 0, n, q, p.System.Required(q))
+			return pw, ok
+		}
+		for n := 1; n < p.Models[0].Count; n++ {
+			// Bracket the crossing on a scan where both counts run on the curve.
+			var lo, hi curves.Flow
+			cap := suiteCapacity(p)
+			prevQ, prevSign := curves.Flow(0), 0
+			for k := 1; k <= 400 && hi == 0; k++ {
+				q := cap * curves.Flow(k) / 400
+				a, okA := powerN(n, q)
+				b, okB := powerN(n+1, q)
+				if !okA || !okB {
+					prevSign = 0
+					continue
+				}
+				sign := 1
+				if b < a {
+					sign = -1
+				}
+				if prevSign == 1 && sign == -1 {
+					lo, hi = prevQ, q
+				}
+				prevQ, prevSign = q, sign
+			}
+			if hi == 0 {
+				// A limit (runout, overload, maximum speed) forces the switch
+				// before the powers cross; nothing to compare here.
+				t.Logf("%s: %d and %d units on the curve do not cross in power while both are feasible", name, n, n+1)
+				continue
+			}
+			found++
+			diff := func(q float64) float64 {
+				a, _ := powerN(n, curves.Flow(q))
+				b, _ := powerN(n+1, curves.Flow(q))
+				return float64(b - a)
+			}
+			qStar := curves.Flow(refBisect(diff, float64(lo), float64(hi)))
+			pStar, _ := powerN(n, qStar)
+			// Premise: at the crossing nothing beats the equal split.
+			ref := refSolve(p, qStar, false)
+			if !ref.Feasible || float64(ref.Power) < float64(pStar)*(1-1e-6) {
+				t.Errorf("%s n=%d: at the equal-power flow %.6g m³/s the reference finds %.9g W below the equal split %.9g W %v",
+					name, n, float64(qStar), float64(ref.Power), float64(pStar), ref.Counts)
+				continue
+			}
+			// The optimiser's own switch, by bisection on its running count.
+			below, above := s.Solve(qStar*(1-1e-3)), s.Solve(qStar*(1+1e-3))
+			if below.Running() != n || above.Running() != n+1 {
+				t.Errorf("%s: around the equal-power flow %.6g m³/s the optimiser runs %d then %d units, want %d then %d",
+					name, float64(qStar), below.Running(), above.Running(), n, n+1)
+				continue
+			}
+			a, b := float64(qStar)*(1-1e-3), float64(qStar)*(1+1e-3)
+			for i := 0; i < 60; i++ {
+				m := 0.5 * (a + b)
+				if r := s.Solve(curves.Flow(m)); r.Running() <= n {
+					a = m
+				} else {
+					b = m
+				}
+			}
+			qOpt := 0.5 * (a + b)
+			if math.Abs(qOpt/float64(qStar)-1) > 1e-5 {
+				t.Errorf("%s: optimiser switches %d→%d at %.8g m³/s, equal total power at %.8g m³/s", name, n, n+1, qOpt, float64(qStar))
+			} else {
+				t.Logf("%s: %d→%d switch at %.6g m³/s (%.1f m³/h), equal-power flow %.6g m³/s", name, n, n+1, qOpt, qOpt/curves.M3PerH, float64(qStar))
+			}
+		}
+	}
+	if found < 5 {
+		t.Errorf("only %d equal-power crossings found; the check needs plants where the powers cross", found)
+	}
 }

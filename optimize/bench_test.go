@@ -1,0 +1,106 @@
+package optimize_test
+
+import (
+	"math"
+	"testing"
+
+	"wattstage/curves"
+	"wattstage/optimize"
+	"wattstage/plant"
+)
+
+// benchPlant8 is an invented 8-unit plant of 3 models: three large, three
+// medium and two small units on DP control.
+func benchPlant8(t testing.TB) *plant.Plant {
+	return suitePlant{name: "eight-units", system: dp(0.45, 30, 0.4), models: []suiteModel{
+		{name: "L", count: 3, pump: pumpL, motorHP: 60},
+		{name: "M", count: 3, pump: pumpM, motorHP: 30},
+		{name: "S", count: 2, pump: pumpS, motorHP: 15},
+	}}.build(t)
+}
+
+// benchYear is a deterministic hourly load pattern for a non-leap year: a
+// seasonal swing and a daily swing around 60 % of design flow, from about
+// 20 % to 95 % of design.
+func benchYear(design curves.Flow) []curves.Flow {
+	out := make([]curves.Flow, curves.HoursPY)
+	for h := range out {
+		season := math.Sin(2 * math.Pi * (float64(h)/curves.HoursPY - 0.3))
+		day := math.Sin(2 * math.Pi * (float64(h%24) - 9) / 24)
+		out[h] = design * curves.Flow(0.6+0.22*season+0.13*day)
+	}
+	return out
+}
+
+// benchPointPlant is the plant of the single-point benchmarks, small enough
+// for the brute-force reference: 2 large units and 1 medium.
+func benchPointPlant(b *testing.B) (*plant.Plant, curves.Flow) {
+	p := suitePlantNamed(b, "two-sizes")
+	return p, 0.16 // m³/s, two or three units running
+}
+
+func BenchmarkSolvePoint(b *testing.B) {
+	p, q := benchPointPlant(b)
+	s := optimize.New(p, optimize.Options{})
+	ref := refSolve(p, q, false)
+	if r := s.Solve(q); r.Status != optimize.Served || !ref.Feasible ||
+		math.Abs(float64(r.Power/ref.Power)-1) > suiteTol {
+		b.Fatalf("solver %v %.6g W and reference %v %.6g W disagree", r.Status, float64(r.Power), ref.Feasible, float64(ref.Power))
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for b.Loop() {
+		s.Solve(q)
+	}
+	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "points/s")
+}
+
+func BenchmarkReferencePoint(b *testing.B) {
+	p, q := benchPointPlant(b)
+	b.ReportAllocs()
+	for b.Loop() {
+		refSolve(p, q, false)
+	}
+	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "points/s")
+}
+
+func BenchmarkSolvePoint8Units(b *testing.B) {
+	p := benchPlant8(b)
+	s := optimize.New(p, optimize.Options{})
+	q := 0.6 * p.DesignFlow
+	if r := s.Solve(q); r.Status != optimize.Served {
+		b.Fatalf("unmet: %s", r.Reason)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		s.Solve(q)
+	}
+	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "points/s")
+}
+
+func benchYearRun(b *testing.B, opt optimize.Options) {
+	p := benchPlant8(b)
+	s := optimize.New(p, opt)
+	loads := benchYear(p.DesignFlow)
+	b.ReportAllocs()
+	for b.Loop() {
+		var energy float64
+		for _, q := range loads {
+			r := s.Solve(q)
+			if r.Status != optimize.Served {
+				b.Fatalf("load %.4g m³/s unmet: %s", float64(q), r.Reason)
+			}
+			energy += float64(r.Power) // W × 1 h
+		}
+		_ = energy
+	}
+	b.ReportMetric(float64(b.N*len(loads))/b.Elapsed().Seconds(), "points/s")
+}
+
+// BenchmarkSolveYear solves 8760 hourly points on the 8-unit plant.
+func BenchmarkSolveYear(b *testing.B) { benchYearRun(b, optimize.Options{}) }
+
+// BenchmarkSolveYearCommonSpeed is the same year with one common speed.
+func BenchmarkSolveYearCommonSpeed(b *testing.B) {
+	benchYearRun(b, optimize.Options{CommonSpeed: true})
+}
