@@ -180,14 +180,14 @@ func lineList(is Issue) string {
 func (r *Report) WriteTo(w io.Writer) (int64, error) {
 	cw := &countWriter{w: w}
 	tw := tabwriter.NewWriter(cw, 0, 0, 2, ' ', 0)
-	fmt.Fprintf(tw, "rows\t%d\t\n", r.Rows)
-	fmt.Fprintf(tw, "kept\t%d\t\n", r.Kept)
-	fmt.Fprintf(tw, "dropped\t%d\t\n", r.Dropped)
+	fmt.Fprintf(tw, "rows\t%d\n", r.Rows)
+	fmt.Fprintf(tw, "kept\t%d\n", r.Kept)
+	fmt.Fprintf(tw, "dropped\t%d\n", r.Dropped)
 	if r.Blank > 0 {
-		fmt.Fprintf(tw, "blank lines skipped\t%d\t\n", r.Blank)
+		fmt.Fprintf(tw, "blank lines skipped\t%d\n", r.Blank)
 	}
 	if r.Preamble > 0 {
-		fmt.Fprintf(tw, "lines before the header\t%d\t\n", r.Preamble)
+		fmt.Fprintf(tw, "lines before the header\t%d\n", r.Preamble)
 	}
 	for _, is := range r.Issues {
 		what := "dropped"
