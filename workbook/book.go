@@ -124,7 +124,8 @@ func (s *sheet) text(col, row int, v, style string) {
 	s.style(col, row, style)
 	// Titles, headings and wrapped text overflow or wrap; they must not
 	// widen a column (on the Curves sheet that would stretch the charts).
-	if !strings.Contains(style, "wrap") && style != "title" && style != "subtitle" && style != "h2" && style != "caution" {
+	// Headers widen only to their longest word (see header).
+	if !strings.Contains(style, "wrap") && style != "title" && style != "subtitle" && style != "h2" && style != "caution" && style != "header" {
 		s.grow(col, float64(utf8.RuneCountInString(v)))
 	}
 }
@@ -380,6 +381,19 @@ func (b *book) defineName(name, refersTo string) {
 	b.fail(b.f.SetDefinedName(&excelize.DefinedName{Name: name, RefersTo: refersTo}))
 }
 
+// printTitles repeats the rows through row and the columns through col on
+// every printed page.
+func (b *book) printTitles(s *sheet, col, row int) {
+	if b.err != nil {
+		return
+	}
+	q := quoteSheet(s.name)
+	b.fail(b.f.SetDefinedName(&excelize.DefinedName{
+		Name: "_xlnm.Print_Titles", Scope: s.name,
+		RefersTo: fmt.Sprintf("%s!$A:$%s,%s!$1:$%d", q, colName(col), q, row),
+	}))
+}
+
 // freeze keeps the rows above row and the columns left of col in view.
 func (b *book) freeze(s *sheet, col, row int) {
 	if b.err != nil {
@@ -405,6 +419,11 @@ func activePane(col, row int) string {
 // pageSetup sets the print area to A1 through (lastCol, lastRow), the
 // orientation, and scaling to one page wide.
 func (b *book) pageSetup(s *sheet, landscape bool, lastCol, lastRow int) {
+	b.pageSetupWide(s, landscape, lastCol, lastRow, 1)
+}
+
+// pageSetupWide is pageSetup scaled to the given number of pages across.
+func (b *book) pageSetupWide(s *sheet, landscape bool, lastCol, lastRow, pagesWide int) {
 	if b.err != nil {
 		return
 	}
@@ -412,12 +431,12 @@ func (b *book) pageSetup(s *sheet, landscape bool, lastCol, lastRow int) {
 	if landscape {
 		orient = "landscape"
 	}
-	paper, one, any := 9, 1, 0 // SpreadsheetML paper sizes: 1 US Letter, 9 A4
+	paper, any := 9, 0 // SpreadsheetML paper sizes: 1 US Letter, 9 A4
 	if b.r.Units.System == "US" {
 		paper = 1
 	}
 	b.fail(b.f.SetPageLayout(s.name, &excelize.PageLayoutOptions{
-		Size: &paper, Orientation: &orient, FitToWidth: &one, FitToHeight: &any,
+		Size: &paper, Orientation: &orient, FitToWidth: &pagesWide, FitToHeight: &any,
 	}))
 	fit := true
 	b.fail(b.f.SetSheetProps(s.name, &excelize.SheetPropsOptions{FitToPage: &fit}))

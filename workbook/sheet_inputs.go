@@ -40,7 +40,7 @@ func (b *book) inputsSheet() {
 			s.number(8, row, zeroAsGap(p.MaxFlow), "d1")
 			s.number(9, row, p.HeadRMS, "d3")
 			s.number(10, row, p.EffRMS, "d3")
-			s.text(11, row, p.Source, "text")
+			s.wrapped(11, row, p.Source, "wrap")
 		}
 		row++
 	}
@@ -57,7 +57,6 @@ func (b *book) inputsSheet() {
 		for k := 0; k < terms; k++ {
 			labels = append(labels, fmt.Sprintf("a%d", k))
 		}
-		labels = append(labels, "Form")
 		s.header(row, 1, labels...)
 		for _, p := range r.Pumps {
 			for _, fit := range []struct {
@@ -73,9 +72,10 @@ func (b *book) inputsSheet() {
 				for k, c := range fit.c {
 					s.number(3+k, row, c, "sci")
 				}
-				s.text(3+terms, row, polyForm(len(fit.c), fit.unit, u.Flow), "text")
 			}
 		}
+		row++
+		s.merged(row, 1, 2+terms, "Head: "+polyForm(terms, u.Head, u.Flow)+". Efficiency: the same form, y in %.", "note_wrap")
 		row += 2
 
 		s.text(1, row, "Datasheet points beside the fitted curves", "h2")
@@ -114,8 +114,8 @@ func (b *book) inputsSheet() {
 			s.number(2, row, m.Rated, "d1")
 			s.number(3, row, m.FullLoadEff, "d1")
 			s.number(4, row, zeroAsGap(m.ServiceFactor), "d2")
-			s.text(5, row, m.PartLoad, "text")
-			s.text(6, row, m.Source, "text")
+			s.wrapped(5, row, m.PartLoad, "wrap")
+			s.wrapped(6, row, m.Source, "wrap")
 			if m.Default {
 				s.text(7, row, "default", "bold")
 			}
@@ -137,7 +137,7 @@ func (b *book) inputsSheet() {
 			s.text(2, row, d.Kind, "text")
 			s.number(3, row, zeroAsGap(d.MinSpeed), "d1")
 			s.number(4, row, zeroAsGap(d.MaxSpeed), "d1")
-			s.text(5, row, d.LossModel, "text")
+			s.wrapped(5, row, d.LossModel, "wrap")
 			if d.Default {
 				s.text(6, row, "default", "bold")
 			}
@@ -170,6 +170,10 @@ func (b *book) inputsSheet() {
 		row++
 	}
 	s.fixed[1] = 26
+	for c := 2; c <= 11; c++ {
+		s.fixed[c] = 14
+	}
+	s.fixed[5], s.fixed[6], s.fixed[11] = 20, 20, 24
 	b.freeze(s, 1, 3)
 	b.pageSetup(s, true, 11, row)
 	s.finish()

@@ -1,6 +1,9 @@
 package workbook
 
-import "fmt"
+import (
+	"fmt"
+	"math"
+)
 
 const sheetLoadPoints = "Load points"
 
@@ -101,6 +104,17 @@ func (b *book) loadPointsSheet() {
 	delete(s.fixed, 12)
 	delete(s.fixed, 13)
 	b.freeze(s, 3, lpHeader+1)
-	b.pageSetup(s, true, last, row)
+	b.printTitles(s, 2, lpHeader)
+	// About 150 character widths fit across a landscape page at full size;
+	// more pages across keep the print readable instead of shrinking it.
+	total := 0.0
+	for c := 1; c <= last; c++ {
+		if w, ok := s.fixed[c]; ok {
+			total += w
+		} else {
+			total += math.Min(math.Max(s.widths[c]+2, minColWidth), maxColWidth)
+		}
+	}
+	b.pageSetupWide(s, true, last, row, max(1, int(math.Ceil(total/150))))
 	s.finish()
 }

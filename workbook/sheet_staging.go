@@ -29,10 +29,10 @@ func (b *book) stagingSheet() {
 		s.text(3, row, sr.Units, "text")
 		s.number(4, row, zeroAsGap(sr.UpSpeed), "d1")
 		s.number(5, row, zeroAsGap(sr.UpFlow), "d1")
-		s.number(6, row, sr.UpDelay, "d1")
+		s.number(6, row, sr.UpDelay, "gen")
 		s.number(7, row, zeroAsGap(sr.DownSpeed), "d1")
 		s.number(8, row, zeroAsGap(sr.DownFlow), "d1")
-		s.number(9, row, sr.DownDelay, "d1")
+		s.number(9, row, sr.DownDelay, "gen")
 		if sr.UpFlow > 0 && sr.DownFlow > 0 {
 			// The band a reviewer checks: stage-down flow must sit well below
 			// stage-up flow or the group hunts between counts.

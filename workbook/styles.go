@@ -53,7 +53,10 @@ func font(bold, italic bool, size float64, colour string) *excelize.Font {
 }
 
 func styleDef(name string) (*excelize.Style, error) {
-	top := &excelize.Alignment{Vertical: "top"}
+	// Text cells are indented one step so a text beside a right-aligned
+	// number does not run into it.
+	top := &excelize.Alignment{Vertical: "top", Indent: 1}
+	wrap := &excelize.Alignment{Vertical: "top", Indent: 1, WrapText: true}
 	switch name {
 	case "title":
 		return &excelize.Style{Font: font(true, false, 15, colourTitle)}, nil
@@ -68,7 +71,7 @@ func styleDef(name string) (*excelize.Style, error) {
 		return &excelize.Style{
 			Font:      font(true, false, 0, ""),
 			Fill:      excelize.Fill{Type: "pattern", Pattern: 1, Color: []string{colourHeader}},
-			Alignment: &excelize.Alignment{WrapText: true, Vertical: "top"},
+			Alignment: wrap,
 			Border:    []excelize.Border{{Type: "bottom", Color: colourRule, Style: 1}},
 		}, nil
 	case "text":
@@ -78,16 +81,16 @@ func styleDef(name string) (*excelize.Style, error) {
 	case "italic":
 		return &excelize.Style{Font: font(false, true, 0, ""), Alignment: top}, nil
 	case "wrap":
-		return &excelize.Style{Font: font(false, false, 0, ""), Alignment: &excelize.Alignment{WrapText: true, Vertical: "top"}}, nil
+		return &excelize.Style{Font: font(false, false, 0, ""), Alignment: wrap}, nil
 	case "note_wrap":
-		return &excelize.Style{Font: font(false, true, 0, ""), Alignment: &excelize.Alignment{WrapText: true, Vertical: "top"}}, nil
+		return &excelize.Style{Font: font(false, true, 0, ""), Alignment: wrap}, nil
 	case "bold_wrap":
-		return &excelize.Style{Font: font(true, false, 0, ""), Alignment: &excelize.Alignment{WrapText: true, Vertical: "top"}}, nil
+		return &excelize.Style{Font: font(true, false, 0, ""), Alignment: wrap}, nil
 	case "caution":
 		return &excelize.Style{
 			Font:      font(true, false, 0, "7A3B00"),
 			Fill:      excelize.Fill{Type: "pattern", Pattern: 1, Color: []string{colourCaution}},
-			Alignment: &excelize.Alignment{WrapText: true, Vertical: "top"},
+			Alignment: wrap,
 		}, nil
 	}
 	input := strings.HasPrefix(name, "in_")
@@ -95,6 +98,8 @@ func styleDef(name string) (*excelize.Style, error) {
 	base := strings.TrimPrefix(strings.TrimPrefix(name, "in_"), "b_")
 	var format string
 	switch {
+	case base == "gen":
+		format = "General"
 	case base == "int":
 		format = "#,##0"
 	case base == "pct":
