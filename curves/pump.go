@@ -302,8 +302,9 @@ func (p *Pump) ShaftPower(q Flow, s, density float64) Power {
 }
 
 // SpeedFor returns the speed ratio at which the pump delivers flow q at
-// head h: the root s of s²·H₀(q/s) = h. ok is false where no positive speed
-// does.
+// head h: the root s of s²·H₀(q/s) = h, taken with q/s on the falling
+// branch of the curve where there is one (the branch FlowAt uses). ok is
+// false where no positive speed up to 64× rated does.
 func (p *Pump) SpeedFor(q Flow, h Head) (s float64, ok bool) {
 	if h <= 0 {
 		return 0, false
@@ -344,8 +345,10 @@ func (p *Pump) SpeedFor(q Flow, h Head) (s float64, ok bool) {
 }
 
 // FlowAt returns the flow the pump gives at speed s against head h, on the
-// falling branch of its curve: the largest root of s²·H₀(q/s) = h. ok is
-// false where the head is above what the pump can make at that speed.
+// falling branch of its curve: the largest root of s²·H₀(q/s) = h (for a
+// cubic fit, the root between the head peak and the first minimum of the fit
+// or 3× the last datasheet flow). ok is false where the head is above what
+// the pump can make at that speed, or below the end of that branch.
 func (p *Pump) FlowAt(s float64, h Head) (q Flow, ok bool) {
 	if s <= 0 {
 		return 0, false
