@@ -44,7 +44,11 @@
 //	        - {load: 25%, efficiency: 88.0}
 //	        - {load: 50%, efficiency: 92.5}
 //	        - {load: 100%, efficiency: 93.6}
-//	    drive: variable                  # or fixed; "variable" uses the DOE default losses
+//	    drive:                           # "variable" (DOE default losses), "fixed", or:
+//	      type: variable
+//	      efficiency_table:              # drive efficiency vs load; or iec_losses (8 points)
+//	        - {load: 25%, efficiency: 90}
+//	        - {load: 100%, efficiency: 96}
 //	    branch_loss: {head: 3, flow: 1000}   # optional: head lost in the unit's own piping
 //
 //	system:
@@ -131,6 +135,28 @@
 // flow, each with a head and, where the flow is above zero, an efficiency
 // or a shaft power (at water of 998.2 kg/m³, the datasheet convention).
 // The fits and their residuals are in [curves.Pump].
+//
+// # Drives
+//
+// drive: fixed is a motor started across the line: no drive losses, no
+// speed change. drive: variable is a variable-speed drive with the US DOE
+// default combined motor-and-drive part-load loss by motor size. A mapping
+// gives the drive's own data instead: an efficiency_table of load (the
+// motor's input over its rated input) against drive efficiency, or the
+// eight loss points of IEC 61800-9-2 as relative speed and torque in % and
+// the loss in % of rated power:
+//
+//	drive:
+//	  type: variable
+//	  iec_losses:
+//	    - {speed: 0,  torque: 25,  loss: 0.9}
+//	    - {speed: 0,  torque: 50,  loss: 1.1}
+//	    - {speed: 0,  torque: 100, loss: 1.6}
+//	    - {speed: 50, torque: 25,  loss: 1.0}
+//	    - {speed: 50, torque: 50,  loss: 1.3}
+//	    - {speed: 50, torque: 100, loss: 2.0}
+//	    - {speed: 90, torque: 50,  loss: 1.6}
+//	    - {speed: 90, torque: 100, loss: 2.6}
 //
 // # What is checked
 //

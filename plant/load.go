@@ -197,7 +197,7 @@ func (d *decoder) plant(root *yaml.Node) *Plant {
 	p.Profile = d.profile(d.required(top, "profile", "the load profile (bins or trend)"), sys)
 	p.Tariff = d.tariff(d.required(top, "tariff", "the tariff (at least energy_price and currency)"))
 	if n := d.value(top, "retrofit"); n != nil {
-		p.Retrofit = d.retrofit(n)
+		p.Retrofit, p.HasRetrofit = d.retrofit(n), true
 	}
 	if n := d.value(top, "sequence"); n != nil {
 		p.Sequence = d.staging(n, specs)

@@ -33,7 +33,7 @@ const (
 	// percentage of BEP flow when the datasheet's value is not given
 	// (common practice for end-suction and split-case pumps; the
 	// manufacturer's value governs).
-	DefaultMinFlowPct = 30
+	DefaultMinFlowPct = 30.0
 	// DefaultSpeedCorrection applies the Sârbu–Borza (1998) efficiency
 	// step-down at reduced speed unless the file says otherwise: it is the
 	// cautious choice, since it lowers predicted savings.
@@ -318,7 +318,9 @@ func (d *decoder) point(n *yaml.Node, path string, out **fields) (curves.PumpPoi
 	case f.has("efficiency") || f.has("shaft_power"):
 		ok = false // given without a value: already reported
 	case fok && fv.Q > 0:
-		d.errorf(f.node, path, "a point with flow needs an efficiency (%%) or a shaft_power (%s)", d.units.PowerUnit())
+		if !f.suggested["efficiency"] && !f.suggested["shaft_power"] {
+			d.errorf(f.node, path, "a point with flow needs an efficiency (%%) or a shaft_power (%s)", d.units.PowerUnit())
+		}
 		ok = false
 	}
 	return p, ok
@@ -771,7 +773,7 @@ func (d *decoder) finishPump(s *pumpSpec) {
 		m.MinFlow = s.minFlow.of(bep)
 	} else if !s.f.has("min_flow") {
 		m.MinFlow = curves.Flow(DefaultMinFlowPct / 100 * float64(bep))
-		d.defaultf(join(path, "min_flow"), "%s (%d %% of the fitted BEP flow %s; common practice — use the manufacturer's minimum continuous stable flow)",
+		d.defaultf(join(path, "min_flow"), "%s (%g %% of the fitted BEP flow %s; common practice — use the manufacturer's minimum continuous stable flow)",
 			d.fmtFlow(m.MinFlow), DefaultMinFlowPct, d.fmtFlow(bep))
 	}
 	if s.runout != nil {
