@@ -25,7 +25,7 @@
 // T, year/month/day, US month/day/year with 24-hour or AM/PM clock,
 // day/month/year, day.month.year, 2-Jan-2006, or dates alone). When
 // month/day and day/month fit the file equally, month/day is taken and a
-// warning says so.
+// warning says so. Stamps before 1970 or after 2199 are bad timestamps.
 //
 // # Messy rows
 //

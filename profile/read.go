@@ -19,6 +19,9 @@ import (
 // for it (building-automation exports often start with a title block).
 const maxPreamble = 50
 
+// maxInterval is the longest logging interval accepted.
+const maxInterval = 31 * 24 * time.Hour
+
 // ReadTrendFile opens path and reads it with ReadTrend.
 func ReadTrendFile(spec TrendSpec, path string) (*Trend, error) {
 	f, err := os.Open(path)
@@ -106,8 +109,8 @@ func newReader(spec TrendSpec, name string) (*reader, error) {
 	if math.IsNaN(float64(spec.MaxFlow)) || spec.MaxFlow < 0 {
 		return nil, specError("maximum flow %g m³/s must be ≥ 0", float64(spec.MaxFlow))
 	}
-	if spec.Interval < 0 {
-		return nil, specError("interval %s must be ≥ 0", spec.Interval)
+	if spec.Interval < 0 || spec.Interval > maxInterval {
+		return nil, specError("interval %s must be 0 to 31 days", spec.Interval)
 	}
 	return p, nil
 }
@@ -648,6 +651,9 @@ func (p *reader) build(kept []*row) (*Trend, error) {
 		if 2*regular < len(steps) {
 			p.warn("logging steps are irregular: %d of %d equal the median step %s", regular, len(steps), iv)
 		}
+	}
+	if iv > maxInterval {
+		return nil, p.errAt(kept[0].line, 0, "", fmt.Errorf("%w: the median step %s is longer than %d days", ErrInterval, iv, maxInterval/(24*time.Hour)))
 	}
 	tr := &Trend{Name: p.name, Spec: p.spec, Location: p.loc, Interval: iv, Points: make([]Point, len(kept))}
 	ivh := iv.Hours()

@@ -285,6 +285,7 @@ func TestSpecErrors(t *testing.T) {
 		{"density", TrendSpec{Density: 1.2}, "fluid density 1.2 kg/m³"},
 		{"max flow", TrendSpec{MaxFlow: -1}, "maximum flow -1 m³/s"},
 		{"interval", TrendSpec{Interval: -time.Minute}, "interval -1m0s"},
+		{"long interval", TrendSpec{Interval: 32 * 24 * time.Hour}, "interval 768h0m0s must be 0 to 31 days"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

@@ -43,6 +43,10 @@ var layouts = []layout{
 	{layout: "2006-01-02"},
 }
 
+// Stamps outside these years are bad: no trend log comes from there, and
+// the span of a file stays within what time.Duration holds (292 years).
+const minYear, maxYear = 1970, 2199
+
 // unixLayout is the TimeFormat for stamps in seconds since 1970-01-01 UTC.
 const unixLayout = "unix"
 
@@ -164,7 +168,7 @@ func (p *reader) parseTimes(rows []*row) error {
 			continue
 		}
 		t, err := parseStamp(lay, r.fields[p.ti])
-		if err != nil {
+		if err != nil || t.Year() < minYear || t.Year() > maxYear {
 			r.drop = BadTime
 			continue
 		}

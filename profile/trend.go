@@ -29,7 +29,8 @@ type TrendSpec struct {
 	// MaxFlow is the largest believable plant flow, m³/s; rows above it are
 	// dropped as absurd. 0 = 3 × the 99th percentile of the positive flows.
 	MaxFlow curves.Flow
-	// Interval is the logging interval; 0 = the median step between stamps.
+	// Interval is the logging interval, at most 31 days; 0 = the median
+	// step between stamps.
 	Interval time.Duration
 }
 
