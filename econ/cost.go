@@ -126,7 +126,9 @@ func (b *Bill) costTimed(t *Tariff, series []Sample) {
 	for _, s := range series {
 		kw := float64(s.Power) / curves.KW
 		longest = max(longest, s.Hours)
-		b.PeakKW = max(b.PeakKW, kw)
+		if s.Hours > 0 {
+			b.PeakKW = max(b.PeakKW, kw)
+		}
 		b.Hours += s.Hours
 		end := s.Start.Add(time.Duration(s.Hours * float64(time.Hour)))
 		for from := s.Start; from.Before(end); {

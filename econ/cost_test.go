@@ -257,3 +257,15 @@ func BenchmarkCostHourlyYear(b *testing.B) {
 		}
 	}
 }
+
+func TestCostZeroHourSample(t *testing.T) {
+	// a zero-length interval draws no energy and sets no peak
+	day := time.Date(2025, 1, 6, 0, 0, 0, 0, time.UTC)
+	b, err := Cost(Tariff{EnergyPrice: 0.1, DemandCharge: 10}, []Sample{{Start: day, Hours: 1, Power: 10e3}, {Start: day.Add(time.Hour), Hours: 0, Power: 900e3}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if b.PeakKW != 10 || b.Energy != 10 || b.DemandCost != 100 {
+		t.Errorf("peak %v energy %v demand %v", b.PeakKW, b.Energy, b.DemandCost)
+	}
+}

@@ -306,6 +306,9 @@ func (p *reader) mapColumns(line string, lineNo int) error {
 	} else if p.ti, err = find(p.spec.TimeColumn); err != nil {
 		return err
 	}
+	if p.ti == p.fi {
+		return p.errAt(lineNo, starts[p.fi], header[p.fi], fmt.Errorf("%w: the time and flow columns are both %q", ErrSpec, header[p.fi]))
+	}
 	if p.spec.DPColumn != "" {
 		if p.di, err = find(p.spec.DPColumn); err != nil {
 			return err
