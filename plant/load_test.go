@@ -645,3 +645,17 @@ tariff: {currency: USD, energy_price: 0.1}
 	// Output:
 	// hw.yaml:12:31: pumps[0].curve[5].efficiecny: unknown key "efficiecny" (did you mean "efficiency"?)
 }
+
+// BenchmarkLoad measures loading and fitting the chilled-water example.
+func BenchmarkLoad(b *testing.B) {
+	data, err := os.ReadFile("../examples/chilled-water.yaml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := Parse("chilled-water.yaml", data, ""); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
