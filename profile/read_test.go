@@ -307,6 +307,10 @@ func TestParseErrorFields(t *testing.T) {
 	if !errors.As(err, &pe) || !errors.Is(err, ErrMissingColumn) {
 		t.Fatalf("err = %v", err)
 	}
+	_, err = ReadTrend(TrendSpec{TimeColumn: "a", FlowColumn: "a", FlowUnit: "gpm"}, strings.NewReader("a,b\n2025-05-01 00:00,1\n"), "x.csv")
+	if !errors.As(err, &pe) || !errors.Is(err, ErrSpec) || pe.Field != "a" {
+		t.Fatalf("time and flow on one column: err = %v", err)
+	}
 	// one good row and one bad: without an interval the file is unusable,
 	// and the error points at the good row
 	spec := TrendSpec{FlowColumn: "flow", FlowUnit: "gpm"}
