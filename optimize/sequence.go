@@ -345,8 +345,8 @@ func (sp *Setpoints) WriteTable(w io.Writer) error {
 	tw := tabwriter.NewWriter(w, 2, 8, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintf(tw, "stage\trunning units\tfrom (%s)\tto (%s)\tspeed (%% rated)\tlimit at low end\t\n", fu, fu)
 	for _, st := range sp.Stages {
-		fmt.Fprintf(tw, "%d\t%s\t%.1f\t%.1f\t%s–%s\t%s\t\n", st.Number, describeCounts(sp.Plant, st.Counts),
-			u.FlowOut(st.Low), u.FlowOut(st.High), pct(st.LowSpeed), pct(st.HighSpeed), orDash(string(st.LowLimit)))
+		fmt.Fprintf(tw, "%d\t%s\t%.1f\t%.1f\t%s\t%s\t\n", st.Number, describeCounts(sp.Plant, st.Counts),
+			u.FlowOut(st.Low), u.FlowOut(st.High), speedRange(st.LowSpeed, st.HighSpeed), orDash(string(st.LowLimit)))
 	}
 	fmt.Fprintln(tw)
 	fmt.Fprintf(tw, "change\tstart / stop\tflow (%s)\tper unit (%s)\tdesign (%%)\tspeed before (%%)\tspeed after (%%)\tdelay (min)\tset by\t\n", fu, fu)
@@ -368,6 +368,18 @@ func pct(v float64) string {
 		return "–"
 	}
 	return fmt.Sprintf("%.1f", 100*v)
+}
+
+func speedRange(lo, hi float64) string {
+	switch {
+	case math.IsNaN(lo) && math.IsNaN(hi):
+		return "–"
+	case math.IsNaN(lo):
+		return pct(hi)
+	case math.IsNaN(hi):
+		return pct(lo)
+	}
+	return pct(lo) + "–" + pct(hi)
 }
 
 func orDash(s string) string {
@@ -449,8 +461,12 @@ func (sp *Setpoints) SequenceOfOperation() string {
 		if o.ServesDesign {
 			serves = "still serve the design flow"
 		}
-		para("Failure response: on a pump or drive fault, or loss of proof of flow, start the next available pump of the same model at once, without the delay; if none is left, stage up. With one %s out of service the remaining pumps %s: they deliver at most %s on the control curve (%.0f %% of design flow), with motors at up to %.0f %% of rated load.",
-			o.Removed, serves, u.FormatFlow(o.MaxFlow), 100*float64(o.MaxFlow/p.DesignFlow), 100*loads)
+		sf := ""
+		if loads > 1 {
+			sf = " (into the motor service factor: confirm with the motor manufacturer that this is acceptable for the duration of the outage)"
+		}
+		para("Failure response: on a pump or drive fault, or loss of proof of flow, start the next available pump of the same model at once, without the delay; if none is left, stage up. With one %s out of service the remaining pumps %s: they deliver at most %s on the control curve (%.0f %% of design flow), with motors at up to %.0f %% of rated load%s.",
+			o.Removed, serves, u.FormatFlow(o.MaxFlow), 100*float64(o.MaxFlow/p.DesignFlow), 100*loads, sf)
 	}
 	para("Lead/lag: rotate the lead among the identical pumps of each model (for example weekly, or to equal run hours) so that wear and starts spread evenly, and exercise idle pumps. Which model runs in each stage is part of the sequence above and does not rotate.")
 	var mins []string
@@ -500,7 +516,7 @@ func changeWords(p *plant.Plant, start, stop []int) string {
 func wrap(s string, width int) string {
 	var words []string
 	for _, w := range strings.Fields(s) {
-		if n := len(words); n > 0 && isUnitWord(w) {
+		if n := len(words); n > 0 && (isUnitWord(w) || strings.HasSuffix(words[n-1], " ×")) {
 			words[n-1] += " " + w
 			continue
 		}

@@ -51,23 +51,30 @@ type SetpointOptions struct {
 	SpeedMargin float64
 	// CapacityMargin: where a stage runs out of capacity before its
 	// crossover, stage up at this fraction below the flow where it runs out,
-	// so that the stage-up delay does not leave the load short. 0 = 0.05.
+	// so that the stage-up delay does not leave the load short. 0 = 0.03.
 	CapacityMargin float64
 	// UpDelay and DownDelay are how long a stage-up or stage-down condition
 	// must hold before the change. 0 = 5 min and 10 min.
 	UpDelay, DownDelay time.Duration
+	// CapacityDelay is the stage-up delay where the lower stage runs out of
+	// capacity (its units near maximum speed, runout or motor limit) rather
+	// than crossing over. 0 = 1 min.
+	CapacityDelay time.Duration
 	// Points is the number of flow intervals of the staging scan. 0 = 240.
 	Points int
 }
 
 // DefaultSetpointOptions are the starting values of a derived sequence. The
-// delays are the trade's usual ones (stage up after about 5 min, down after
-// about 10 min: common practice, DOMAIN §7); the deadband, speed margin and
-// capacity margin are wattstage's starting values, to be adjusted on
+// delays are the trade's usual ones (stage up after about 5 min, or 1 min
+// where the running units are at their limit, down after about 10 min), and
+// the capacity margin is the usual offset of about 3 % below a stage
+// boundary (common practice and ASHRAE Guideline 36-2021 as quoted in
+// public implementation documentation, DOMAIN §7); the deadband and speed
+// margin are wattstage's starting values. All are to be adjusted on
 // commissioning.
 var DefaultSetpointOptions = SetpointOptions{
-	Deadband: 0.10, SpeedMargin: 0.03, CapacityMargin: 0.05,
-	UpDelay: 5 * time.Minute, DownDelay: 10 * time.Minute, Points: 240,
+	Deadband: 0.10, SpeedMargin: 0.03, CapacityMargin: 0.03,
+	UpDelay: 5 * time.Minute, DownDelay: 10 * time.Minute, CapacityDelay: time.Minute, Points: 240,
 }
 
 // ErrSetpoints classes the errors of DeriveSetpoints.
@@ -211,11 +218,21 @@ func DeriveSetpoints(p *plant.Plant, opt SetpointOptions) (*Setpoints, error) {
 	if len(segs) == 0 {
 		return nil, fmt.Errorf("%w: no flow of the scan is served", ErrSetpoints)
 	}
+	for {
+		out.Transitions = out.Transitions[:0]
+		for i := 0; i+1 < len(segs); i++ {
+			out.Transitions = append(out.Transitions, d.transition(segs[i], segs[i+1], grid, i+1))
+		}
+		k := d.narrowStage(out.Transitions)
+		if k < 0 {
+			break
+		}
+		d.warnf("%s would run only from %s to %s, too narrow a band to stage into and out of: the sequence skips it",
+			d.describe(segs[k].counts), d.fmtQ(out.Transitions[k-1].Up.Flow), d.fmtQ(out.Transitions[k].Up.Flow))
+		segs = append(segs[:k], segs[k+1:]...)
+	}
 	for i, sg := range segs {
 		out.Stages = append(out.Stages, Stage{Number: i + 1, Counts: sg.counts, Running: sum(sg.counts)})
-	}
-	for i := 0; i+1 < len(segs); i++ {
-		out.Transitions = append(out.Transitions, d.transition(segs[i], segs[i+1], grid, i+1))
 	}
 	for i := range out.Transitions {
 		d.stageDown(out.Transitions, i, lo)
@@ -242,7 +259,7 @@ func fillSetpointOptions(o SetpointOptions) (SetpointOptions, []string, error) {
 	}
 	pick(&o.Deadband, def.Deadband, fmt.Sprintf("deadband %.0f %% of the stage-up flow (wattstage starting value)", 100*def.Deadband))
 	pick(&o.SpeedMargin, def.SpeedMargin, fmt.Sprintf("speed margin %.0f %% of rated speed (wattstage starting value)", 100*def.SpeedMargin))
-	pick(&o.CapacityMargin, def.CapacityMargin, fmt.Sprintf("capacity margin %.0f %% (wattstage starting value)", 100*def.CapacityMargin))
+	pick(&o.CapacityMargin, def.CapacityMargin, fmt.Sprintf("capacity margin %.0f %% below the flow where a stage runs out (common practice)", 100*def.CapacityMargin))
 	if o.UpDelay == 0 {
 		o.UpDelay = def.UpDelay
 		used = append(used, "stage-up delay 5 min (common practice)")
@@ -250,6 +267,10 @@ func fillSetpointOptions(o SetpointOptions) (SetpointOptions, []string, error) {
 	if o.DownDelay == 0 {
 		o.DownDelay = def.DownDelay
 		used = append(used, "stage-down delay 10 min (common practice)")
+	}
+	if o.CapacityDelay == 0 {
+		o.CapacityDelay = def.CapacityDelay
+		used = append(used, "stage-up delay 1 min where the running units are at their limit (common practice)")
 	}
 	if o.Points == 0 {
 		o.Points = def.Points
@@ -261,7 +282,7 @@ func fillSetpointOptions(o SetpointOptions) (SetpointOptions, []string, error) {
 		return o, nil, fmt.Errorf("%w: speed margin %g must be above 0 and below 0.5", ErrSetpoints, o.SpeedMargin)
 	case o.CapacityMargin < 0 || o.CapacityMargin >= 0.5 || math.IsNaN(o.CapacityMargin):
 		return o, nil, fmt.Errorf("%w: capacity margin %g must be above 0 and below 0.5", ErrSetpoints, o.CapacityMargin)
-	case o.UpDelay < 0 || o.DownDelay < 0:
+	case o.UpDelay < 0 || o.DownDelay < 0 || o.CapacityDelay < 0:
 		return o, nil, fmt.Errorf("%w: delays must not be negative", ErrSetpoints)
 	case o.Points < 8:
 		return o, nil, fmt.Errorf("%w: the scan needs at least 8 flow intervals", ErrSetpoints)
@@ -463,9 +484,25 @@ func (d *deriver) transition(a, b segment, grid []curves.Flow, from int) Transit
 			d.describe(a.counts), aLim, d.fmtQ(aTop), 100*d.opt.CapacityMargin))
 		up, lim = early, aLim
 	}
-	t.Up = d.threshold(a.counts, b.counts, up, lim, d.opt.UpDelay)
+	delay := d.opt.UpDelay
+	if lim != LimitCrossover && lim != LimitNextLow {
+		delay = d.opt.CapacityDelay
+	}
+	t.Up = d.threshold(a.counts, b.counts, up, lim, delay)
 	t.UpOptions = d.options(up, sum(b.counts))
 	return t
+}
+
+// narrowStage returns the index of the first interior stage whose band, from
+// the stage-up flow into it to its own stage-up flow, is narrower than half
+// a deadband (a stage that cannot hold its deadband), or -1.
+func (d *deriver) narrowStage(ts []Transition) int {
+	for k := 1; k < len(ts); k++ {
+		if ts[k].Up.Flow-ts[k-1].Up.Flow < curves.Flow(0.5*d.opt.Deadband)*ts[k].Up.Flow {
+			return k
+		}
+	}
+	return -1
 }
 
 // stageDown places the stage-down value of transition k: a deadband below
@@ -504,45 +541,49 @@ func (d *deriver) stageDown(ts []Transition, k int, lowest curves.Flow) {
 }
 
 // speedDown sets the speed form of a stage-down value (Down.Speed, its flow
-// Down.SpeedFlow and Down.SpeedLimit).
+// Down.SpeedFlow and Down.SpeedLimit): the highest flow at or below the
+// stage-down flow where the upper stage runs at least SpeedMargin slower than
+// just after the stage-up, and the lower stage, once back, at least
+// SpeedMargin slower than its own stage-up speed.
 func (d *deriver) speedDown(ts []Transition, k int, lowest curves.Flow) {
 	t := &ts[k]
 	if math.IsNaN(t.Up.After) || math.IsNaN(t.Down.Speed) {
 		return
 	}
-	target := t.Up.After - d.opt.SpeedMargin
-	if t.Down.Speed <= target {
-		return
+	upper, lower := t.Up.After-d.opt.SpeedMargin, t.Up.Speed-d.opt.SpeedMargin
+	fits := func(q curves.Flow) bool {
+		sb, sa := d.speedAt(t.Upper, q), d.speedAt(t.Lower, q)
+		if math.IsNaN(sb) {
+			return false
+		}
+		return sb <= upper && (math.IsNaN(sa) || sa <= lower)
 	}
-	b := t.Upper
-	above := func(q curves.Flow) bool {
-		s := d.speedAt(b, q)
-		return math.IsNaN(s) || s > target
+	if fits(t.Down.Flow) {
+		return
 	}
 	floor := lowest
 	if k > 0 {
 		floor = max(floor, ts[k-1].Up.Flow)
 	}
-	if above(floor) {
-		t.Down.Speed, t.Down.SpeedFlow, t.Down.SpeedLimit = math.NaN(), 0, LimitHunting
-		t.Notes = append(t.Notes, fmt.Sprintf("the speed of %s stays within %.0f %% of its speed just after stage-up down to %s: stage down on flow, not on speed",
-			d.describe(b), 100*d.opt.SpeedMargin, d.fmtQ(floor)))
+	if !fits(floor) {
+		t.Down.Speed, t.Down.SpeedAfter, t.Down.SpeedFlow, t.Down.SpeedLimit = math.NaN(), math.NaN(), 0, LimitHunting
+		t.Notes = append(t.Notes, fmt.Sprintf("the speeds stay within %.0f %% of the speeds at stage-up down to %s: stage down on flow, not on speed",
+			100*d.opt.SpeedMargin, d.fmtQ(floor)))
 		return
 	}
 	lo, hi := floor, t.Down.Flow
 	for it := 0; it < 60 && hi-lo > 1e-10*hi; it++ {
 		m := (lo + hi) / 2
-		if above(m) {
-			hi = m
-		} else {
+		if fits(m) {
 			lo = m
+		} else {
+			hi = m
 		}
 	}
-	rb, ra := d.at(b, lo), d.at(t.Lower, lo)
-	t.Down.Speed, t.Down.SpeedFlow, t.Down.SpeedLimit = d.speedOf(rb), lo, LimitHunting
-	t.Down.SpeedAfter = d.speedOf(ra)
-	t.Notes = append(t.Notes, fmt.Sprintf("speed form of the stage-down lowered to %.1f %% (reached at %s) so that %s after a stage-up runs at least %.0f %% faster",
-		100*t.Down.Speed, d.fmtQ(lo), d.describe(b), 100*d.opt.SpeedMargin))
+	t.Down.Speed, t.Down.SpeedAfter = d.speedAt(t.Upper, lo), d.speedAt(t.Lower, lo)
+	t.Down.SpeedFlow, t.Down.SpeedLimit = lo, LimitHunting
+	t.Notes = append(t.Notes, fmt.Sprintf("speed form of the stage-down lowered to %.1f %% (reached at %s) for a %.0f %% speed margin each way",
+		100*t.Down.Speed, d.fmtQ(lo), 100*d.opt.SpeedMargin))
 }
 
 // threshold describes a change from combination before to after at flow q.
@@ -610,6 +651,15 @@ func (d *deriver) fillStages(out *Setpoints, grid []curves.Flow) {
 		st.Low, st.High = out.Lowest, out.Capacity
 		if i > 0 {
 			st.Low = out.Transitions[i-1].Down.Flow
+		} else {
+			// The lowest flow the first stage serves (below it no
+			// combination may serve without bypass: warned by the scan).
+			for _, q := range grid {
+				if d.served(st.Counts, q) {
+					st.Low, _ = d.comboBottom(st.Counts, q, out.Lowest)
+					break
+				}
+			}
 		}
 		if i < len(out.Transitions) {
 			st.High = out.Transitions[i].Up.Flow
