@@ -132,8 +132,8 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 		if !c.allows(cnt) {
 			continue
 		}
-		st, sd := s.atHead(cnt, Q, hr)
-		if sd == tooMuch {
+		st, _ := s.atHead(cnt, Q, hr)
+		if st == nil && s.mayRise(cnt, Q, hr) {
 			st = s.lowestFeasibleHead(cnt, Q, hr)
 		}
 		if st == nil {
@@ -474,42 +474,67 @@ func (s *Solver) headCap(cnt []int) float64 {
 	return hc
 }
 
-// lowestFeasibleHead finds, for a combo that moves too much flow at the
-// required head, the lowest header head at which it serves the flow: a scan
-// up to the combo's head limit, then bisection on the first step that no
-// longer moves too much (for fixed-speed units alone the feasible head is a
-// single point, where their curve flows add up to the pumped flow).
+// mayRise reports whether a combo that fails at the required head could
+// serve the flow at a higher header head: the flows its units give at their
+// top speeds only fall as the head rises, so if they are short at the
+// required head no higher head helps. (Runout and the minimum-speed floor,
+// by contrast, move in the helpful direction as the head rises.)
+func (s *Solver) mayRise(cnt []int, Q, hr float64) bool {
+	sum := 0.0
+	for i, n := range cnt {
+		if n == 0 {
+			continue
+		}
+		u := s.units[i]
+		q, ok := u.flowAt(u.smax, hr)
+		if !ok {
+			return false
+		}
+		sum += float64(n) * q
+	}
+	return sum >= Q*(1-1e-9)
+}
+
+// lowestFeasibleHead finds the lowest header head above the required one at
+// which a combo serves the flow: a scan up to the combo's head limit, then
+// bisection at the first step that fits (or, for fixed-speed units alone,
+// whose feasible head is a single point, at the step where their flow
+// turns from too much to too little).
 func (s *Solver) lowestFeasibleHead(cnt []int, Q, hr float64) *state {
 	hc := s.headCap(cnt)
 	if hc <= hr {
 		return nil
 	}
-	const n = 32
-	prev := hr
+	const n = 48
+	prev, prevSide := hr, side(-1)
 	for k := 1; k <= n; k++ {
 		h := hr + (hc-hr)*float64(k)/n
 		st, sd := s.atHead(cnt, Q, h)
-		if sd == tooMuch {
-			prev = h
+		crossing := prevSide == tooMuch && sd == tooLittle
+		if sd != fits && !crossing {
+			prev, prevSide = h, sd
 			continue
 		}
 		a, b := prev, h
 		for it := 0; it < 100 && b-a > 1e-13*b; it++ {
 			m := (a + b) / 2
-			t, sd := s.atHead(cnt, Q, m)
-			switch sd {
-			case tooMuch:
-				a = m
-			case fits:
+			t, sm := s.atHead(cnt, Q, m)
+			switch {
+			case sm == fits:
 				b, st = m, t
-			default:
+			case crossing && sm == tooLittle:
 				b = m
+			default:
+				a = m
 			}
 		}
 		if st == nil {
 			st, _ = s.atHead(cnt, Q, b)
 		}
-		return st
+		if st != nil {
+			return st
+		}
+		prev, prevSide = h, sd
 	}
 	return nil
 }
@@ -631,15 +656,19 @@ func (s *Solver) unmet(res Result, Q, hr float64, c Constraint) Result {
 		if !c.allows(cnt) {
 			continue
 		}
-		sum := 0.0
-		for i, n := range cnt {
-			if n > 0 {
-				if sp := s.units[i].bounds(hr); sp.ok {
-					sum += float64(n) * sp.hi
+		hc := math.Max(hr, s.headCap(cnt))
+		for k := 0; k <= 16; k++ {
+			h := hr + (hc-hr)*float64(k)/16
+			sum := 0.0
+			for i, n := range cnt {
+				if n > 0 {
+					if sp := s.units[i].bounds(h); sp.ok {
+						sum += float64(n) * sp.hi
+					}
 				}
 			}
+			capacity = math.Max(capacity, sum)
 		}
-		capacity = math.Max(capacity, sum)
 	}
 	if capacity < Q {
 		res.Limit = LimitCapacity
