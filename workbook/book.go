@@ -238,7 +238,7 @@ func (s *sheet) finish() {
 		if _, ok := s.fixed[col]; ok {
 			continue
 		}
-		s.fixed[col] = math.Min(math.Max(w+2, minColWidth), maxColWidth)
+		s.fixed[col] = math.Min(math.Max(w+3, minColWidth), maxColWidth) // content, indent, margin
 	}
 	for _, col := range sortedKeys(s.fixed) {
 		name := colName(col)
@@ -283,7 +283,7 @@ func wrappedLines(text string, width float64, bold bool) int {
 	if bold {
 		perUnit = 1.0
 	}
-	perLine := int(math.Max((width-1)*perUnit, 1))
+	perLine := int(math.Max((width-2)*perUnit, 1)) // less the indent
 	lines := 0
 	for _, para := range strings.Split(text, "\n") {
 		lines++

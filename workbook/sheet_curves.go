@@ -69,6 +69,7 @@ func (b *book) curveDataSheet(charts []Chart) [][]seriesRefs {
 		s.fixed[c] = 13
 	}
 	b.freeze(s, 1, 3)
+	b.pageSetup(s, true, 2*maxSeries(charts), row)
 	s.finish()
 	return out
 }

@@ -112,7 +112,7 @@ func (b *book) loadPointsSheet() {
 		if w, ok := s.fixed[c]; ok {
 			total += w
 		} else {
-			total += math.Min(math.Max(s.widths[c]+2, minColWidth), maxColWidth)
+			total += math.Min(math.Max(s.widths[c]+3, minColWidth), maxColWidth)
 		}
 	}
 	b.pageSetupWide(s, true, last, row, max(1, int(math.Ceil(total/150))))

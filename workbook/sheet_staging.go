@@ -57,8 +57,9 @@ func (b *book) stagingSheet() {
 		row++
 	}
 	for c := 1; c <= 10; c++ {
-		s.fixed[c] = 12
+		s.fixed[c] = 13
 	}
+	delete(s.fixed, 3) // units added: fitted to its text
 	s.fixed[11] = 36
 	b.freeze(s, 1, stagingHeader+1)
 	b.pageSetup(s, true, last, row)

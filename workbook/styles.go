@@ -55,8 +55,8 @@ func font(bold, italic bool, size float64, colour string) *excelize.Font {
 func styleDef(name string) (*excelize.Style, error) {
 	// Text cells are indented one step so a text beside a right-aligned
 	// number does not run into it.
-	top := &excelize.Alignment{Vertical: "top", Indent: 1}
-	wrap := &excelize.Alignment{Vertical: "top", Indent: 1, WrapText: true}
+	top := &excelize.Alignment{Vertical: "top", Horizontal: "left", Indent: 1}
+	wrap := &excelize.Alignment{Vertical: "top", Horizontal: "left", Indent: 1, WrapText: true}
 	switch name {
 	case "title":
 		return &excelize.Style{Font: font(true, false, 15, colourTitle)}, nil

@@ -1,0 +1,119 @@
+package workbook
+
+import (
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// TestRenderSummaryAndCurves prints the workbook to PDF through LibreOffice
+// and to PNG through pdftoppm, for a person to look at, and checks what a
+// machine can: the Summary and Curves pages exist, their text (cautions,
+// strategies, chart and axis titles) is on the page, no number shows as
+// ### (a column too narrow), and the Curves sheet fits one page.
+//
+// Set WORKBOOK_RENDER_DIR to keep the PDF and PNGs there.
+func TestRenderSummaryAndCurves(t *testing.T) {
+	soffice := office(t)
+	pdftoppm, err := exec.LookPath("pdftoppm")
+	if err != nil {
+		if os.Getenv("CI") == "true" {
+			t.Fatal("pdftoppm not found and CI=true: install poppler-utils")
+		}
+		t.Skip("pdftoppm not found: install poppler-utils to render the pages")
+	}
+	pdftotext, err := exec.LookPath("pdftotext")
+	if err != nil {
+		t.Skip("pdftotext not found: install poppler-utils")
+	}
+	out := os.Getenv("WORKBOOK_RENDER_DIR")
+	if out == "" {
+		out = t.TempDir()
+	} else if err := os.MkdirAll(out, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	r := sampleReport()
+	file := filepath.Join(out, "plan.xlsx")
+	if err := Write(file, r, Options{Force: true}); err != nil {
+		t.Fatal(err)
+	}
+	pdf := convert(t, soffice, newProfile(t), file, "pdf")
+	if err := os.Rename(pdf, filepath.Join(out, "plan.pdf")); err != nil {
+		t.Fatal(err)
+	}
+	pdf = filepath.Join(out, "plan.pdf")
+
+	var pages []string
+	for i := 1; ; i++ {
+		txt, err := exec.Command(pdftotext, "-layout", "-f", strconv.Itoa(i), "-l", strconv.Itoa(i), pdf, "-").Output()
+		if err != nil {
+			break // past the last page
+		}
+		pages = append(pages, string(txt))
+	}
+	if len(pages) < 3 {
+		t.Fatalf("PDF has %d pages", len(pages))
+	}
+	find := func(prefix string) int {
+		for i, p := range pages {
+			if strings.HasPrefix(strings.TrimSpace(p), prefix) {
+				return i
+			}
+		}
+		t.Fatalf("no page starts with %q", prefix)
+		return -1
+	}
+	for i, p := range pages {
+		if strings.Contains(p, "###") {
+			t.Errorf("page %d shows ### (a number wider than its column)", i+1)
+		}
+	}
+
+	summary := pages[find("Pump group plan: ")]
+	flat := strings.Join(strings.Fields(summary), " ")
+	for _, c := range DefaultCautions {
+		words := strings.Fields(c)
+		if !strings.Contains(flat, strings.Join(words[:6], " ")) {
+			t.Errorf("Summary page lacks the caution %q", c)
+		}
+	}
+	for _, want := range []string{"Strategies compared", "NPV over life", "no saving", "Recommended staging"} {
+		if !strings.Contains(flat, want) {
+			t.Errorf("Summary page lacks %q", want)
+		}
+	}
+
+	ci := find("Curves: ")
+	curves := strings.Join(strings.Fields(pages[ci]), " ")
+	var wantText []string
+	for _, c := range append(append(r.Curves.Head, r.Curves.Efficiency...), r.Curves.GroupPower) {
+		wantText = append(wantText, c.Title, c.XLabel, c.YLabel)
+	}
+	wantText = append(wantText, "Annual energy by strategy", "Annual energy (kWh/yr)", "85,940")
+	for _, want := range wantText {
+		if !strings.Contains(curves, want) {
+			t.Errorf("Curves page lacks %q: a chart did not render", want)
+		}
+	}
+	if ci+1 < len(pages) && !strings.HasPrefix(strings.TrimSpace(pages[ci+1]), "Load points: ") {
+		t.Errorf("the Curves sheet runs onto a second page: %.80q", pages[ci+1])
+	}
+
+	for _, pg := range []struct {
+		name string
+		i    int
+	}{{"summary", find("Pump group plan: ")}, {"curves", ci}} {
+		n := strconv.Itoa(pg.i + 1)
+		prefix := filepath.Join(out, pg.name)
+		if b, err := exec.Command(pdftoppm, "-r", "110", "-png", "-singlefile", "-f", n, "-l", n, pdf, prefix).CombinedOutput(); err != nil {
+			t.Fatalf("pdftoppm: %v\n%s", err, b)
+		}
+		if fi, err := os.Stat(prefix + ".png"); err != nil || fi.Size() < 10000 {
+			t.Errorf("%s.png missing or nearly empty", prefix)
+		}
+	}
+	t.Logf("rendered %d pages to %s (summary.png, curves.png)", len(pages), out)
+}
