@@ -714,3 +714,13 @@ func TestStartsPerHourShape(t *testing.T) {
 		}
 	}
 }
+
+func BenchmarkDeriveSetpoints(b *testing.B) {
+	p := mixedPlant(b, testModel(b, "small", 1, 0.4, curves.DOEDrive{}))
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := DeriveSetpoints(p, SetpointOptions{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
