@@ -1,6 +1,7 @@
 package optimize
 
 import (
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -150,7 +151,7 @@ type Transition struct {
 
 // Setpoints is a derived staging sequence.
 type Setpoints struct {
-	Plant       *plant.Plant
+	Plant       *plant.Plant    `json:"-"`
 	Options     SetpointOptions // with the defaults filled in
 	Defaults    []string        // options left at their default, in plain words
 	Stages      []Stage
@@ -159,6 +160,32 @@ type Setpoints struct {
 	Capacity    curves.Flow // most plant flow served on the system curve
 	OneOut      *UnitOutCheck
 	Warnings    []string
+}
+
+// MarshalJSON writes the speeds that do not exist (NaN) as null.
+func (t Threshold) MarshalJSON() ([]byte, error) {
+	type plain Threshold
+	return json.Marshal(struct {
+		plain
+		Speed, After, SpeedAfter *float64
+		DelayMin                 float64
+	}{plain(t), finiteOrNil(t.Speed), finiteOrNil(t.After), finiteOrNil(t.SpeedAfter), t.Delay.Minutes()})
+}
+
+// MarshalJSON writes the speeds that do not exist (NaN) as null.
+func (s Stage) MarshalJSON() ([]byte, error) {
+	type plain Stage
+	return json.Marshal(struct {
+		plain
+		LowSpeed, HighSpeed *float64
+	}{plain(s), finiteOrNil(s.LowSpeed), finiteOrNil(s.HighSpeed)})
+}
+
+func finiteOrNil(v float64) *float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return nil
+	}
+	return &v
 }
 
 // deriver holds the state of one derivation.

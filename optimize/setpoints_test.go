@@ -1,6 +1,7 @@
 package optimize
 
 import (
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -652,6 +653,42 @@ func TestSequenceOfOperationText(t *testing.T) {
 		t.Errorf("table:\n%s", b.String())
 	}
 	t.Logf("\n%s\n%s", b.String(), text)
+}
+
+// The setpoints encode as JSON, speeds that do not exist as null (NaN has
+// no JSON form, RFC 8259 §6).
+func TestSetpointsJSON(t *testing.T) {
+	p := FixedVariant(testPlant(t, testModel(t, "big", 3, 1, curves.DOEDrive{})))
+	sp, err := DeriveSetpoints(p, SetpointOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, err := json.Marshal(sp)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var back struct {
+		Transitions []struct {
+			Up struct {
+				Flow     float64
+				Speed    *float64
+				DelayMin float64
+				Limit    string
+			}
+		}
+	}
+	if err := json.Unmarshal(data, &back); err != nil {
+		t.Fatal(err)
+	}
+	if len(back.Transitions) != len(sp.Transitions) {
+		t.Fatalf("%d transitions in JSON, want %d", len(back.Transitions), len(sp.Transitions))
+	}
+	for i, tr := range back.Transitions {
+		want := sp.Transitions[i].Up
+		if tr.Up.Speed != nil || tr.Up.Flow != float64(want.Flow) || tr.Up.DelayMin != want.Delay.Minutes() || tr.Up.Limit != string(want.Limit) {
+			t.Errorf("transition %d: JSON %+v, want flow %g, no speed, delay %g min, limit %q", i, tr.Up, float64(want.Flow), want.Delay.Minutes(), want.Limit)
+		}
+	}
 }
 
 func TestDeriveSetpointsErrors(t *testing.T) {
