@@ -275,13 +275,13 @@ func TestLibreOfficeLiveInputs(t *testing.T) {
 	}
 	f.Close()
 
-	// The time-of-use price factor is kept from the original tariff, as the
-	// sheet keeps it; with the sample's flat price it is 1.
+	// The sheet keeps each strategy's time-of-use price factor, so the Go
+	// side scales the energy cost at the tariff by the new price.
 	r2 := *r
 	r2.Economics = changed
 	r2.Strategies = append([]Strategy(nil), r.Strategies...)
 	for i := range r2.Strategies {
-		r2.Strategies[i].EnergyCost = 0
+		r2.Strategies[i].EnergyCost *= changed.EnergyPrice / r.Economics.EnergyPrice
 	}
 	want, err := Formulas(&r2)
 	if err != nil {

@@ -147,7 +147,7 @@ func sampleReport() *Report {
 	}
 	var powerSeries []Series
 	for _, st := range strategies {
-		var total, peak float64
+		var total, peak, cost float64
 		var ps Series
 		ps.Name = st.name
 		for i, bin := range bins {
@@ -160,7 +160,9 @@ func sampleReport() *Report {
 				PlantFlow: q, RequiredHead: h, Head: runs[0].head, Hours: bin.hours,
 				UnitsRunning: len(runs), KW: kw, KWh: kw * bin.hours,
 			}
-			lp.Cost = lp.KWh * r.Economics.EnergyPrice
+			// Demo time-of-use weighting: the high bins fall in the dearer
+			// afternoon hours.
+			lp.Cost = lp.KWh * r.Economics.EnergyPrice * (0.9 + 0.16*bin.frac)
 			var names []string
 			for _, u := range runs {
 				names = append(names, u.unit)
@@ -178,12 +180,13 @@ func sampleReport() *Report {
 			}
 			r.LoadPoints = append(r.LoadPoints, lp)
 			total += lp.KWh
+			cost += lp.Cost
 			peak = math.Max(peak, kw)
 			ps.X = append(ps.X, q)
 			ps.Y = append(ps.Y, kw)
 		}
 		r.Strategies = append(r.Strategies, Strategy{Name: st.name, Description: st.desc,
-			EnergyKWh: total, PeakKW: peak, DrivesToBuy: st.drives})
+			EnergyKWh: total, PeakKW: peak, EnergyCost: cost, DrivesToBuy: st.drives})
 		powerSeries = append(powerSeries, ps)
 	}
 	r.Strategies[3].HoursUnmet = 0
