@@ -72,6 +72,13 @@ func (b *book) summarySheet() {
 		}
 	}
 	s.header(row, 1, names...)
+	if hasDescriptions(r.Strategies) {
+		row++
+		s.text(1, row, "What it is", "text")
+		for i, st := range r.Strategies {
+			s.wrapped(2+i, row, st.Description, "note_wrap")
+		}
+	}
 	base := b.econ.Strategies[r.Baseline]
 	rows := []summaryRow{
 		{"Annual energy (kWh/yr)", ekWh, "int", func(se StrategyEconomics, _ Strategy) Value { return num(se.EnergyKWh) }},
@@ -224,4 +231,13 @@ func (b *book) unitsLine() string {
 		line = b.r.Date + " · " + line
 	}
 	return line
+}
+
+func hasDescriptions(ss []Strategy) bool {
+	for _, s := range ss {
+		if s.Description != "" {
+			return true
+		}
+	}
+	return false
 }

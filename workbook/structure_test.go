@@ -198,3 +198,31 @@ func BenchmarkBytes(b *testing.B) {
 		}
 	}
 }
+
+// TestMinimalReport: a Report with one strategy and nothing else still
+// makes a workbook, with "None given." where sections are empty.
+func TestMinimalReport(t *testing.T) {
+	r := &Report{
+		Plant:      "Bare plant",
+		Units:      Units{Flow: "m³/h", Head: "m", Currency: "EUR"},
+		Strategies: []Strategy{{Name: "As found", EnergyKWh: 1000, PeakKW: 1}},
+		Economics:  EconomicsInputs{EnergyPrice: 0.2, LifeYears: 1},
+	}
+	data, err := Bytes(r)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f, err := excelize.OpenReader(bytes.NewReader(data))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	v, _ := f.GetCellValue(sheetStaging, "A5")
+	if v != "None given." {
+		t.Errorf("Staging A5 = %q, want None given.", v)
+	}
+	h, _ := f.GetCellValue(sheetEconomics, cellName(1, econRow(ekTotal)))
+	if h != "Annual cost (EUR/yr)" {
+		t.Errorf("Economics cost label %q, want the currency in it", h)
+	}
+}
