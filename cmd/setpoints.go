@@ -1,8 +1,238 @@
 package cmd
 
-import "github.com/spf13/cobra"
+import (
+	"fmt"
+	"math"
+	"time"
+
+	"github.com/spf13/cobra"
+
+	"wattstage/optimize"
+	"wattstage/plant"
+	"wattstage/workbook"
+)
+
+// SetpointsOptions are the inputs of `wattstage setpoints`.
+type SetpointsOptions struct {
+	IO        *IO
+	PlantPath string
+	Deadband  float64
+	UpDelay   time.Duration
+	DownDelay time.Duration
+	Basis     string
+	JSON      bool
+}
 
 // NewCmdSetpoints builds `wattstage setpoints`.
-func NewCmdSetpoints(streams *IO, runF func(*IO) error) *cobra.Command {
-	return &cobra.Command{Use: "setpoints PLANT.yaml", Short: "Staging setpoints a controls contractor can program", Hidden: true}
+func NewCmdSetpoints(streams *IO, runF func(*SetpointsOptions) error) *cobra.Command {
+	opts := &SetpointsOptions{IO: streams}
+	c := &cobra.Command{
+		Use:   "setpoints PLANT.yaml",
+		Short: "Staging setpoints a controls contractor can program",
+		Long: `Derive, from the lowest-power staging, a sequence the automation system can
+run: for each change of running units the plant flow at which it saves power
+(the crossover), written as plant flow, flow per unit, percent of design flow
+and the common speed just before and just after the change; stage-down values
+below stage-up by a deadband that prevents hunting; delays; the limit that sets
+each value; the order units come on and go off; and the failure response.
+
+The sequence is then run over the plant's load profile and its energy compared
+with the unconstrained optimum and with the plant's current thresholds.`,
+		Example: `  wattstage setpoints examples/chilled-water.yaml
+  wattstage setpoints examples/chilled-water-trend.yaml --basis speed
+  wattstage setpoints examples/condenser-water.yaml --deadband 0.15 --down-delay 15m --json`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(c *cobra.Command, args []string) error {
+			opts.PlantPath = args[0]
+			if opts.Basis != "flow" && opts.Basis != "speed" {
+				return usageError{fmt.Errorf("--basis must be flow or speed")}
+			}
+			if opts.Deadband < 0 || opts.Deadband >= 0.5 {
+				return usageError{fmt.Errorf("--deadband %g: give a fraction from 0 to below 0.5 (0 = default)", opts.Deadband)}
+			}
+			if runF != nil {
+				return runF(opts)
+			}
+			return setpointsRun(opts)
+		},
+	}
+	f := c.Flags()
+	f.Float64Var(&opts.Deadband, "deadband", 0, "stage-down flow below stage-up, as a fraction of the stage-up flow (default 0.10)")
+	f.DurationVar(&opts.UpDelay, "up-delay", 0, "how long a stage-up condition must hold (default 5m)")
+	f.DurationVar(&opts.DownDelay, "down-delay", 0, "how long a stage-down condition must hold (default 10m)")
+	f.StringVar(&opts.Basis, "basis", "flow", "signal the sequence stages on when it is run over the profile: flow or speed")
+	f.BoolVar(&opts.JSON, "json", false, "write the setpoints and their energy price as JSON")
+	return c
+}
+
+func setpointsRun(opts *SetpointsOptions) error {
+	in, err := loadPlanInput(opts.PlantPath, "")
+	if err != nil {
+		return err
+	}
+	sp, err := optimize.DeriveSetpoints(in.plant, optimize.SetpointOptions{Deadband: opts.Deadband,
+		UpDelay: opts.UpDelay, DownDelay: opts.DownDelay})
+	if err != nil {
+		return err
+	}
+	basis := optimize.FlowBasis
+	if opts.Basis == "speed" {
+		basis = optimize.SpeedBasis
+	}
+	price := optimize.PriceSequence(sp, in.steps, basis)
+	if opts.JSON {
+		return writeJSON(opts.IO.Out, map[string]any{"setpoints": sp, "price": priceJSON(price),
+			"sequence_of_operation": sp.SequenceOfOperation(), "cautions": cautions})
+	}
+	out := opts.IO.Out
+	p := in.plant
+	fmt.Fprintf(out, "Plant: %s\n", p.Name)
+	heading(out, "Staging setpoints (adjustable starting values)")
+	if err := sp.WriteTable(out); err != nil {
+		return err
+	}
+	if len(sp.Defaults) > 0 {
+		fmt.Fprintln(out)
+		for _, d := range sp.Defaults {
+			fmt.Fprintln(out, "default: "+d)
+		}
+	}
+	heading(out, "Energy price of the sequence over the profile")
+	writeProfileLine(out, in)
+	t := newTable(out)
+	t.row("way of staging", "energy (kWh/yr)", "vs optimum (%)", "stage changes")
+	changes := func(n int) string {
+		if len(in.steps) > 0 && in.steps[0].Timed() {
+			return fmt.Sprint(n)
+		}
+		return "—"
+	}
+	t.row("lowest power at every step", num(price.Optimum.KWh, 0), "0.00", changes(price.OptimumChanges))
+	t.row("derived sequence ("+basis.String()+" signal)", num(price.Sequence.KWh, 0), fmt.Sprintf("%+.2f", price.ExtraPct), changes(price.Sequence.Changes))
+	if price.HasCurrent {
+		t.row("current thresholds", num(price.Current.KWh, 0), fmt.Sprintf("%+.2f", price.CurrentExtraPct), changes(price.Current.Changes))
+	}
+	t.flush()
+	if len(in.steps) > 0 && in.steps[0].Timed() {
+		fmt.Fprintf(out, "Derived sequence: %.2f stage changes per day on average, at most %d in one hour\n",
+			price.Cycling.PerDay, price.Cycling.MaxPerHour)
+	}
+	for _, w := range append(sp.Warnings, price.Warnings...) {
+		fmt.Fprintln(out, "Note: "+w)
+	}
+	heading(out, "Sequence of operation")
+	fmt.Fprint(out, sp.SequenceOfOperation())
+	writeCautions(out)
+	return nil
+}
+
+func priceJSON(pr optimize.SequencePrice) map[string]any {
+	m := map[string]any{"basis": pr.Basis.String(), "optimum_kwh": pr.Optimum.KWh, "sequence_kwh": pr.Sequence.KWh,
+		"sequence_extra_pct": pr.ExtraPct, "optimum_changes": pr.OptimumChanges, "sequence_changes": pr.Sequence.Changes,
+		"changes_per_day": pr.Cycling.PerDay, "max_changes_in_an_hour": pr.Cycling.MaxPerHour, "warnings": pr.Warnings}
+	if pr.HasCurrent {
+		m["current_kwh"] = pr.Current.KWh
+		m["current_extra_pct"] = pr.CurrentExtraPct
+	}
+	return m
+}
+
+// derivedStrategy returns the derived setpoint sequence as an extra plan
+// strategy, or none where the plant has no drives or no sequence can be
+// derived.
+func derivedStrategy(p *plant.Plant) []optimize.Keyed {
+	sp, err := optimize.DeriveSetpoints(p, optimize.SetpointOptions{})
+	if err != nil || len(sp.Transitions) == 0 {
+		return nil
+	}
+	return []optimize.Keyed{{Key: optimize.KeyDerived, Strategy: optimize.NewSequenced("derived setpoints", sp, optimize.FlowBasis)}}
+}
+
+// stagingFor returns the staging sheet's content from the derived setpoints.
+func stagingFor(p *plant.Plant) workbook.Staging {
+	sp, err := optimize.DeriveSetpoints(p, optimize.SetpointOptions{})
+	if err != nil {
+		return workbook.Staging{Settings: []workbook.Quantity{{Label: "Setpoints", Text: "could not be derived: " + err.Error()}}}
+	}
+	u := p.Units
+	var st workbook.Staging
+	speed := func(v float64) float64 {
+		if math.IsNaN(v) {
+			return math.NaN()
+		}
+		return 100 * v
+	}
+	for _, t := range sp.Transitions {
+		st.Rows = append(st.Rows, workbook.StagingRow{From: sumInts(t.Lower), To: sumInts(t.Upper), Units: startStopWords(p, t.Start, t.Stop),
+			UpSpeed: speed(t.Up.Speed), UpFlow: u.FlowOut(t.Up.Flow), UpDelay: t.Up.Delay.Minutes(),
+			DownSpeed: speed(t.Down.Speed), DownFlow: u.FlowOut(t.Down.Flow), DownDelay: t.Down.Delay.Minutes(),
+			Note: fmt.Sprintf("up set by %s; down set by %s", t.Up.Limit, t.Down.Limit)})
+	}
+	o := sp.Options
+	st.Settings = []workbook.Quantity{
+		{Label: "Deadband (stage-down below stage-up)", Value: 100 * o.Deadband, Unit: "% of stage-up flow", Decimals: 0},
+		{Label: "Speed margin", Value: 100 * o.SpeedMargin, Unit: "% of rated speed", Decimals: 0},
+		{Label: "Capacity margin", Value: 100 * o.CapacityMargin, Unit: "% below running out", Decimals: 0},
+		{Label: "Stage-up delay", Value: o.UpDelay.Minutes(), Unit: "min", Decimals: 0},
+		{Label: "Stage-down delay", Value: o.DownDelay.Minutes(), Unit: "min", Decimals: 0},
+		{Label: "Lead/lag rotation", Text: "rotate the lead unit of each model weekly or by run hours (common practice)"},
+	}
+	for _, para := range splitParagraphs(sp.SequenceOfOperation()) {
+		st.Sequence = append(st.Sequence, para)
+	}
+	return st
+}
+
+func sumInts(v []int) int {
+	n := 0
+	for _, x := range v {
+		n += x
+	}
+	return n
+}
+
+func startStopWords(p *plant.Plant, start, stop []int) string {
+	s := ""
+	for i, n := range start {
+		if n > 0 {
+			s += fmt.Sprintf("+%d × %s ", n, p.Models[i].Name)
+		}
+	}
+	for i, n := range stop {
+		if n > 0 {
+			s += fmt.Sprintf("−%d × %s ", n, p.Models[i].Name)
+		}
+	}
+	return s
+}
+
+func splitParagraphs(text string) []string {
+	var out []string
+	cur := ""
+	for _, line := range append(splitLines(text), "") {
+		if line == "" {
+			if cur != "" {
+				out = append(out, cur)
+			}
+			cur = ""
+			continue
+		}
+		if cur != "" {
+			cur += " "
+		}
+		cur += line
+	}
+	return out
+}
+
+func splitLines(s string) []string {
+	var out []string
+	start := 0
+	for i := 0; i < len(s); i++ {
+		if s[i] == '\n' {
+			out = append(out, s[start:i])
+			start = i + 1
+		}
+	}
+	return append(out, s[start:])
 }

@@ -3,6 +3,7 @@ package optimize
 import (
 	"fmt"
 	"math"
+	"sort"
 
 	"wattstage/curves"
 	"wattstage/plant"
@@ -30,6 +31,7 @@ type Solver struct {
 	units  []*unitModel
 	combos [][]int
 	rho    float64
+	spans  []span // scratch
 }
 
 // New returns a solver for the plant.
@@ -126,18 +128,49 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 		return res
 	}
 	Q := float64(pumped)
-	var best *state
-	var near []*state
+	// First pass: every allowed combo at its lowest feasible head, with the
+	// variable units' flow split in proportion to their ranges — exact for a
+	// combo with one variable model, an upper bound on the others' power.
+	type cand struct {
+		st    *state
+		exact bool
+	}
+	var cands []cand
+	quickBest := math.Inf(1)
 	for _, cnt := range s.combos {
 		if !c.allows(cnt) {
 			continue
 		}
-		st, _ := s.atHead(cnt, Q, hr)
-		if st == nil && s.mayRise(cnt, Q, hr) {
-			st = s.lowestFeasibleHead(cnt, Q, hr)
+		h := hr
+		if _, _, sd := s.sides(cnt, Q, hr, s.spanBuf(len(cnt))); sd != fits {
+			if !s.mayRise(cnt, Q, hr) {
+				continue
+			}
+			if h = s.lowestFeasibleHeadValue(cnt, Q, hr); h <= 0 {
+				continue
+			}
 		}
-		if st == nil {
+		st, sd := s.atHeadMode(cnt, Q, h, false)
+		if sd != fits {
 			continue
+		}
+		cands = append(cands, cand{st, s.variableModels(cnt) <= 1})
+		quickBest = math.Min(quickBest, st.power)
+	}
+	// Second pass: the full equal-marginal split for multi-model combos
+	// whose proportional split is within 25 % of the best found — a
+	// proportional split is rarely that far from its own optimum.
+	var best *state
+	var near []*state
+	for _, cd := range cands {
+		st := cd.st
+		if !cd.exact {
+			if st.power > 1.25*quickBest {
+				continue
+			}
+			if full, sd := s.atHeadMode(st.counts, Q, st.h, true); sd == fits {
+				st = full
+			}
 		}
 		near = append(near, st)
 		if best == nil || st.power < best.power {
@@ -188,8 +221,47 @@ func (c Constraint) allows(cnt []int) bool {
 // h: fixed-speed units give what their curves give; the variable ones share
 // the rest at equal marginal power (or at one common speed).
 func (s *Solver) atHead(cnt []int, Q, h float64) (*state, side) {
-	st := &state{counts: cnt, h: h, q: make([]float64, len(cnt)), split: make([]split, len(cnt))}
+	return s.atHeadMode(cnt, Q, h, true)
+}
+
+// atHeadMode is atHead; with full false the variable units' flow is split in
+// proportion to their allowed ranges instead of at equal marginal power.
+func (s *Solver) atHeadMode(cnt []int, Q, h float64, full bool) (*state, side) {
 	spans := make([]span, len(cnt))
+	qvar, vars, sd := s.sides(cnt, Q, h, spans)
+	if sd != fits {
+		return nil, sd
+	}
+	st := &state{counts: cnt, h: h, q: make([]float64, len(cnt)), split: make([]split, len(cnt))}
+	for i, n := range cnt {
+		if n > 0 && !s.units[i].variable {
+			st.q[i] = spans[i].lo
+		}
+	}
+	if len(vars) > 0 {
+		switch {
+		case s.opt.CommonSpeed:
+			if !s.commonSpeed(st, vars, spans, qvar) {
+				return nil, tooLittle
+			}
+		case full:
+			s.equalMarginal(st, vars, spans, qvar)
+		default:
+			proportional(st, vars, spans, qvar)
+		}
+	}
+	st.power = s.power(st)
+	if math.IsInf(st.power, 0) || math.IsNaN(st.power) {
+		return nil, tooLittle
+	}
+	return st, fits
+}
+
+// sides checks, without allocating, whether a combo can move Q at header
+// head h: it fills each running model's allowed span and returns the flow
+// left for the variable units, their models, and whether the combo fits,
+// moves too much or too little.
+func (s *Solver) sides(cnt []int, Q, h float64, spans []span) (float64, []int, side) {
 	qvar := Q
 	var vars []int
 	loSum, hiSum := 0.0, 0.0
@@ -203,13 +275,12 @@ func (s *Solver) atHead(cnt []int, Q, h float64) (*state, side) {
 			// A fixed-speed unit past its runout or overloaded at this head
 			// moves less flow at a higher head; anything else gets worse.
 			if !u.variable && (sp.why == LimitRunout || sp.why == LimitOverload) {
-				return nil, tooMuch
+				return 0, nil, tooMuch
 			}
-			return nil, tooLittle
+			return 0, nil, tooLittle
 		}
 		spans[i] = sp
 		if !u.variable {
-			st.q[i] = sp.lo
 			qvar -= float64(n) * sp.lo
 			continue
 		}
@@ -219,33 +290,52 @@ func (s *Solver) atHead(cnt []int, Q, h float64) (*state, side) {
 	}
 	tol := 1e-9 * Q
 	if len(vars) == 0 {
-		switch {
-		case qvar < -tol:
-			return nil, tooMuch
-		case qvar > tol:
-			return nil, tooLittle
-		}
-		st.power = s.power(st)
-		return st, fits
+		loSum, hiSum = 0, 0
 	}
 	switch {
 	case loSum > qvar+tol:
-		return nil, tooMuch
+		return 0, nil, tooMuch
 	case hiSum < qvar-tol:
-		return nil, tooLittle
+		return 0, nil, tooLittle
 	}
-	if s.opt.CommonSpeed {
-		if !s.commonSpeed(st, vars, spans, qvar) {
-			return nil, tooLittle
+	return qvar, vars, fits
+}
+
+// proportional splits qvar among the variable models at one common
+// fraction of each model's allowed range.
+func proportional(st *state, vars []int, spans []span, qvar float64) {
+	lo, hi := 0.0, 0.0
+	for _, i := range vars {
+		n := float64(st.counts[i])
+		lo += n * spans[i].lo
+		hi += n * spans[i].hi
+	}
+	t := 0.0
+	if hi > lo {
+		t = (qvar - lo) / (hi - lo)
+	}
+	for _, i := range vars {
+		st.q[i] = spans[i].lo + t*(spans[i].hi-spans[i].lo)
+	}
+}
+
+// variableModels counts the running variable-speed models of a combo.
+func (s *Solver) variableModels(cnt []int) int {
+	k := 0
+	for i, n := range cnt {
+		if n > 0 && s.units[i].variable {
+			k++
 		}
-	} else {
-		s.equalMarginal(st, vars, spans, qvar)
 	}
-	st.power = s.power(st)
-	if math.IsInf(st.power, 0) || math.IsNaN(st.power) {
-		return nil, tooLittle
+	return k
+}
+
+// spanBuf returns a scratch slice of spans.
+func (s *Solver) spanBuf(n int) []span {
+	if cap(s.spans) < n {
+		s.spans = make([]span, n)
 	}
-	return st, fits
+	return s.spans[:n]
 }
 
 // equalMarginal splits qvar among the variable models so that their
@@ -283,34 +373,16 @@ func (s *Solver) equalMarginal(st *state, vars []int, spans []span, qvar float64
 	hh := make([]float64, len(st.q))
 	d := make([]float64, len(st.q))
 	trial := make([]float64, len(st.q))
+	_ = d
 	cur := cost(st.q)
 	for it := 0; it < 40; it++ {
 		for _, i := range vars {
 			g[i], hh[i] = s.units[i].derivs(st.q[i], st.h, spans[i])
 		}
-		// Find λ with Σ n_i clamp((λ − g_i)/h_i) = 0 (flows stay summed).
-		dOf := func(lam float64) float64 {
-			sum := 0.0
-			for _, i := range vars {
-				d[i] = clamp((lam-g[i])/hh[i], spans[i].lo-st.q[i], spans[i].hi-st.q[i])
-				sum += n(i) * d[i]
-			}
-			return sum
-		}
-		la, lb := math.Inf(1), math.Inf(-1)
-		for _, i := range vars {
-			la = math.Min(la, g[i]+hh[i]*(spans[i].lo-st.q[i]))
-			lb = math.Max(lb, g[i]+hh[i]*(spans[i].hi-st.q[i]))
-		}
-		for k := 0; k < 100; k++ {
-			m := (la + lb) / 2
-			if dOf(m) < 0 {
-				la = m
-			} else {
-				lb = m
-			}
-		}
-		dOf((la + lb) / 2)
+		// Find λ with Σ n_i clamp((λ − g_i)/h_i) = 0 (flows stay summed):
+		// the sum is piecewise linear and rising in λ, so solve it exactly
+		// between its breakpoints.
+		solveLambda(vars, st.q, spans, g, hh, d, n)
 		// Restore the exact sum on the models with room to move.
 		resid := qvar
 		for _, i := range vars {
@@ -349,7 +421,7 @@ func (s *Solver) equalMarginal(st *state, vars []int, spans []span, qvar float64
 		for _, i := range vars {
 			maxd = math.Max(maxd, math.Abs(step*d[i])/math.Max(spans[i].hi, 1e-12))
 		}
-		if !moved || maxd < 1e-11 {
+		if !moved || maxd < 1e-9 {
 			break
 		}
 	}
@@ -501,15 +573,27 @@ func (s *Solver) mayRise(cnt []int, Q, hr float64) bool {
 // whose feasible head is a single point, at the step where their flow
 // turns from too much to too little).
 func (s *Solver) lowestFeasibleHead(cnt []int, Q, hr float64) *state {
-	hc := s.headCap(cnt)
-	if hc <= hr {
+	h := s.lowestFeasibleHeadValue(cnt, Q, hr)
+	if h <= 0 {
 		return nil
 	}
+	st, _ := s.atHead(cnt, Q, h)
+	return st
+}
+
+// lowestFeasibleHeadValue is the head lowestFeasibleHead solves at, or 0.
+func (s *Solver) lowestFeasibleHeadValue(cnt []int, Q, hr float64) float64 {
+	hc := s.headCap(cnt)
+	if hc <= hr {
+		return 0
+	}
+	spans := make([]span, len(cnt))
+	side := func(h float64) side { _, _, sd := s.sides(cnt, Q, h, spans); return sd }
 	const n = 48
-	prev, prevSide := hr, side(-1)
+	prev, prevSide := hr, side(hr)
 	for k := 1; k <= n; k++ {
 		h := hr + (hc-hr)*float64(k)/n
-		st, sd := s.atHead(cnt, Q, h)
+		sd := side(h)
 		crossing := prevSide == tooMuch && sd == tooLittle
 		if sd != fits && !crossing {
 			prev, prevSide = h, sd
@@ -518,25 +602,19 @@ func (s *Solver) lowestFeasibleHead(cnt []int, Q, hr float64) *state {
 		a, b := prev, h
 		for it := 0; it < 100 && b-a > 1e-13*b; it++ {
 			m := (a + b) / 2
-			t, sm := s.atHead(cnt, Q, m)
-			switch {
-			case sm == fits:
-				b, st = m, t
-			case crossing && sm == tooLittle:
+			switch sm := side(m); {
+			case sm == fits, crossing && sm == tooLittle:
 				b = m
 			default:
 				a = m
 			}
 		}
-		if st == nil {
-			st, _ = s.atHead(cnt, Q, b)
-		}
-		if st != nil {
-			return st
+		if _, _, sb := s.sides(cnt, Q, b, spans); sb == fits {
+			return b
 		}
 		prev, prevSide = h, sd
 	}
-	return nil
+	return 0
 }
 
 // searchHead looks for a cheaper header head above st.h for the same combo:
@@ -600,6 +678,9 @@ func (s *Solver) trySplits(st *state, Q float64) {
 			continue
 		}
 		sp := u.bounds(st.h)
+		if u.convexOn(sp, st.h) {
+			continue // the equal split is optimal for a convex power curve
+		}
 		total := float64(n) * st.q[i]
 		base := float64(n) * u.powerAt(st.q[i], st.h)
 		bestP, bestJ, bestB := base, 0, 0.0
@@ -624,7 +705,7 @@ func (s *Solver) trySplits(st *state, Q float64) {
 			a := bl + (bh-bl)*float64(max(bk-1, 0))/m
 			b := bl + (bh-bl)*float64(min(bk+1, m))/m
 			const g = 0.6180339887498949
-			for it := 0; it < 60 && b-a > 1e-12*bh; it++ {
+			for it := 0; it < 40 && b-a > 1e-9*bh; it++ {
 				m1, m2 := b-g*(b-a), a+g*(b-a)
 				if f(m1) < f(m2) {
 					b = m2
@@ -688,3 +769,57 @@ func (s *Solver) unmet(res Result, Q, hr float64, c Constraint) Result {
 }
 
 func clamp(v, lo, hi float64) float64 { return math.Max(lo, math.Min(hi, v)) }
+
+// solveLambda sets d_i = clamp((λ − g_i)/h_i, lo_i − q_i, hi_i − q_i) for
+// the λ at which Σ n_i d_i = 0. Each d_i(λ) is flat, then rises with slope
+// 1/h_i between λ = g_i + h_i(lo_i − q_i) and g_i + h_i(hi_i − q_i), then
+// is flat again; the sum's root lies between two adjacent breakpoints,
+// where it is linear.
+func solveLambda(vars []int, q []float64, spans []span, g, h, d []float64, n func(int) float64) {
+	var bp [16]float64
+	pts := bp[:0]
+	for _, i := range vars {
+		pts = append(pts, g[i]+h[i]*(spans[i].lo-q[i]), g[i]+h[i]*(spans[i].hi-q[i]))
+	}
+	sort.Float64s(pts)
+	total := func(lam float64) float64 {
+		sum := 0.0
+		for _, i := range vars {
+			d[i] = clamp((lam-g[i])/h[i], spans[i].lo-q[i], spans[i].hi-q[i])
+			sum += n(i) * d[i]
+		}
+		return sum
+	}
+	lo, flo := pts[0], total(pts[0])
+	lam := lo
+	for _, b := range pts[1:] {
+		fb := total(b)
+		if fb >= 0 {
+			if fb > flo {
+				lam = lo + (b-lo)*(-flo)/(fb-flo)
+			} else {
+				lam = b
+			}
+			break
+		}
+		lo, flo, lam = b, fb, b
+	}
+	total(lam)
+}
+
+// convexOn reports whether a unit's power is convex in flow at header head
+// h across its allowed span, judged by second differences on 9 points
+// (with a tolerance for rounding).
+func (u *unitModel) convexOn(sp span, h float64) bool {
+	const n = 8
+	var p [n + 1]float64
+	for k := 0; k <= n; k++ {
+		p[k] = u.powerAt(sp.lo+(sp.hi-sp.lo)*float64(k)/n, h)
+	}
+	for k := 1; k < n; k++ {
+		if p[k+1]-2*p[k]+p[k-1] < -1e-9*p[k] {
+			return false
+		}
+	}
+	return true
+}
