@@ -411,7 +411,9 @@ func (s *Solver) equalMarginal(st *state, vars []int, spans []span, qvar float64
 			}
 			if c := cost(trial); c < cur {
 				cur = c
-				copy(st.q, trial)
+				for _, i := range vars {
+					st.q[i] = trial[i] // only the variable models move
+				}
 				moved = true
 				break
 			}

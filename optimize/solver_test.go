@@ -48,7 +48,22 @@ func testPlant(t testing.TB, models ...plant.Model) *plant.Plant {
 }
 
 func TestSolveInvariants(t *testing.T) {
-	p := testPlant(t, testModel(t, "big", 3, 1, curves.DOEDrive{}), testModel(t, "small", 1, 0.4, curves.DOEDrive{}))
+	for _, tc := range []struct {
+		name string
+		p    *plant.Plant
+	}{
+		{"two variable models", testPlant(t, testModel(t, "big", 3, 1, curves.DOEDrive{}), testModel(t, "small", 1, 0.4, curves.DOEDrive{}))},
+		// A fixed unit beside two variable models: the allocation among the
+		// variable ones must leave the fixed unit's curve flow alone (a bug
+		// once zeroed it).
+		{"fixed beside two variable models", testPlant(t, testModel(t, "big", 2, 1, curves.DOEDrive{}),
+			testModel(t, "big fixed", 1, 1, curves.FixedSpeed{}), testModel(t, "small", 1, 0.4, curves.DOEDrive{}))},
+	} {
+		t.Run(tc.name, func(t *testing.T) { checkInvariants(t, tc.p) })
+	}
+}
+
+func checkInvariants(t *testing.T, p *plant.Plant) {
 	s := New(p, Options{})
 	for gpm := 0.0; gpm <= 4000; gpm += 100 {
 		r := s.Solve(curves.Flow(gpm * curves.GPM))
@@ -64,14 +79,22 @@ func TestSolveInvariants(t *testing.T) {
 				t.Errorf("%v gpm: unit head %v, curve gives %v", gpm, u.Head, h)
 			}
 		}
+		for _, u := range r.Units {
+			if u.Flow <= 0 {
+				t.Errorf("%v gpm: a running %s unit has no flow", gpm, p.Models[u.Model].Name)
+			}
+		}
 		if math.Abs(sum-float64(r.PumpedFlow)) > 1e-9*float64(r.PumpedFlow) {
 			t.Errorf("%v gpm: flows sum to %v, want %v", gpm, sum, r.PumpedFlow)
 		}
 		if r.Power < r.Hydraulic {
 			t.Errorf("%v gpm: electrical %v below hydraulic %v", gpm, r.Power, r.Hydraulic)
 		}
-		t.Logf("%6.0f gpm: counts %v H %.1f ft (req %.1f) %.2f kW limit %q speeds %.3f", gpm, r.Counts,
+		_ = speeds
+		if testing.Verbose() {
+			t.Logf("%6.0f gpm: counts %v H %.1f ft (req %.1f) %.2f kW limit %q speeds %.3f", gpm, r.Counts,
 			float64(r.HeaderHead)/curves.Foot, float64(r.RequiredHead)/curves.Foot, float64(r.Power)/1000, r.Limit, speeds(r))
+		}
 	}
 }
 
