@@ -93,7 +93,7 @@ func checkInvariants(t *testing.T, p *plant.Plant) {
 		_ = speeds
 		if testing.Verbose() {
 			t.Logf("%6.0f gpm: counts %v H %.1f ft (req %.1f) %.2f kW limit %q speeds %.3f", gpm, r.Counts,
-			float64(r.HeaderHead)/curves.Foot, float64(r.RequiredHead)/curves.Foot, float64(r.Power)/1000, r.Limit, speeds(r))
+				float64(r.HeaderHead)/curves.Foot, float64(r.RequiredHead)/curves.Foot, float64(r.Power)/1000, r.Limit, speeds(r))
 		}
 	}
 }
