@@ -483,9 +483,11 @@ func (s *Solver) commonSpeed(st *state, vars []int, spans []span, qvar float64) 
 		return false
 	}
 	a, b := slo, shi
-	if flows(a) > qvar {
+	if fa := flows(a); fa > qvar*(1+1e-9) {
 		// At the common floor the units move too much: the head must rise.
 		return false
+	} else if fa >= qvar {
+		b = a // on the floor (within rounding of the head that put it there)
 	}
 	for it := 0; it < 100 && b-a > 1e-14; it++ {
 		m := (a + b) / 2
