@@ -13,6 +13,9 @@ type Drive interface {
 	Variable() bool
 	// Input returns the power chain at a shaft output and speed ratio.
 	Input(m Motor, shaft Power, speed float64) Chain
+	// Electrical returns Input(m, shaft, speed).Electrical, without the
+	// efficiency split (the optimiser's hot path).
+	Electrical(m Motor, shaft Power, speed float64) Power
 	// Describe names the loss model for reports.
 	Describe() string
 }
@@ -45,8 +48,9 @@ var (
 // fixed at rated.
 type FixedSpeed struct{}
 
-func (FixedSpeed) Variable() bool   { return false }
-func (FixedSpeed) Describe() string { return "fixed speed (across the line)" }
+func (FixedSpeed) Variable() bool                                   { return false }
+func (FixedSpeed) Describe() string                                 { return "fixed speed (across the line)" }
+func (FixedSpeed) Electrical(m Motor, shaft Power, _ float64) Power { return shaft + m.Loss(shaft) }
 func (FixedSpeed) Input(m Motor, shaft Power, _ float64) Chain {
 	loss := m.Loss(shaft)
 	return Chain{Shaft: shaft, Electrical: shaft + loss, MotorEff: m.Efficiency(shaft), DriveEff: 1,
@@ -88,10 +92,16 @@ func (DOEDrive) Variable() bool { return true }
 func (DOEDrive) Describe() string {
 	return "variable-speed drive, DOE default motor+drive part-load loss"
 }
-func (DOEDrive) Input(m Motor, shaft Power, _ float64) Chain {
+
+// Electrical is shaft + z(R) · full-load motor losses.
+func (DOEDrive) Electrical(m Motor, shaft Power, _ float64) Power {
 	r := float64(shaft) / float64(m.Rated)
-	total := Power(DOEDriveLossFactor(m.Rated, r) * float64(m.FullLoadLoss()))
-	elec := shaft + total
+	return shaft + Power(DOEDriveLossFactor(m.Rated, r)*float64(m.FullLoadLoss()))
+}
+
+func (d DOEDrive) Input(m Motor, shaft Power, speed float64) Chain {
+	r := float64(shaft) / float64(m.Rated)
+	elec := d.Electrical(m, shaft, speed)
 	c := Chain{Shaft: shaft, Electrical: elec, Load: r}
 	motorIn := shaft + m.Loss(shaft)
 	if motorIn > elec || shaft <= 0 {
@@ -112,6 +122,9 @@ type TableDrive struct {
 
 func (TableDrive) Variable() bool   { return true }
 func (TableDrive) Describe() string { return "variable-speed drive, efficiency table" }
+func (d TableDrive) Electrical(m Motor, shaft Power, speed float64) Power {
+	return d.Input(m, shaft, speed).Electrical
+}
 func (d TableDrive) Input(m Motor, shaft Power, _ float64) Chain {
 	motorIn := shaft + m.Loss(shaft)
 	ratedIn := float64(m.Rated) / m.FullLoadEff
@@ -200,6 +213,9 @@ func (d IECDrive) LossPct(speed, torque float64) float64 {
 
 func (IECDrive) Variable() bool   { return true }
 func (IECDrive) Describe() string { return "variable-speed drive, IEC 61800-9-2 loss table" }
+func (d IECDrive) Electrical(m Motor, shaft Power, speed float64) Power {
+	return d.Input(m, shaft, speed).Electrical
+}
 func (d IECDrive) Input(m Motor, shaft Power, speed float64) Chain {
 	motorIn := shaft + m.Loss(shaft)
 	ratedIn := float64(m.Rated) / m.FullLoadEff

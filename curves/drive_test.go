@@ -279,3 +279,25 @@ func TestDriveChainInvariants(t *testing.T) {
 		}
 	}
 }
+
+// TestElectricalMatchesInput: the optimiser's fast path must give the same
+// wire power as the full chain, for every drive model (an internal
+// consistency check; no outside source).
+func TestElectricalMatchesInput(t *testing.T) {
+	iec, err := NewIECDrive([]IECPoint{{0, 25, 1.0}, {0, 50, 1.2}, {0, 100, 1.9}, {50, 25, 1.3}, {50, 50, 1.6}, {50, 100, 2.4}, {90, 50, 2.0}, {90, 100, 3.0}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := Motor{Rated: Power(30 * Horsepower), FullLoadEff: 0.936}
+	drives := []Drive{FixedSpeed{}, DOEDrive{}, TableDrive{Table: []LoadEff{{0.1, 0.8}, {0.5, 0.95}, {1, 0.97}}}, iec}
+	for _, d := range drives {
+		for _, load := range []float64{0.02, 0.1, 0.4, 0.8, 1.1} {
+			shaft := Power(load) * m.Rated
+			speed := 0.3 + 0.6*load
+			got, want := d.Electrical(m, shaft, speed), d.Input(m, shaft, speed).Electrical
+			if got != want {
+				t.Errorf("%s at load %.2f: Electrical %v, Input %v", d.Describe(), load, got, want)
+			}
+		}
+	}
+}

@@ -68,6 +68,7 @@ type Pump struct {
 	BEPEff          float64     // efficiency at BEP
 	SpeedCorrection bool        // Sârbu–Borza applied below rated speed
 	quadratic       bool        // head polynomial of degree 2: closed-form inverses
+	bepAtEdge       bool        // the fitted efficiency peaks at an end of the datasheet range
 	fallLo, fallHi  float64     // falling branch of the cubic head fit at rated speed, m³/s
 }
 
@@ -167,8 +168,7 @@ func NewPump(points []PumpPoint, opt PumpOptions) (*Pump, error) {
 	}
 	p.findBEP()
 	p.fallLo, p.fallHi = p.fallingBranch()
-	if p.BEPFlow < p.FirstFlow || p.BEPFlow > p.LastFlow ||
-		(p.BEPFlow == p.LastFlow && p.eff.Deriv(float64(p.LastFlow)) > 0) {
+	if p.bepAtEdge {
 		return nil, fmt.Errorf("%w (fitted BEP at %.4g m³/s, points %.4g–%.4g m³/s)",
 			ErrBEPOutsidePoint, float64(p.BEPFlow), float64(p.FirstFlow), float64(p.LastFlow))
 	}
@@ -211,16 +211,22 @@ func (p *Pump) checkShape(allowRising bool) error {
 // findBEP locates the maximum of the fitted efficiency on [0, 1.5·LastFlow]
 // by a dense scan refined with golden-section search.
 func (p *Pump) findBEP() {
-	hi := 1.5 * float64(p.LastFlow)
+	// Only the datasheet range counts: a cubic fit may turn up again past the
+	// last point, which says nothing about the pump.
+	a, b := float64(p.FirstFlow), float64(p.LastFlow)
 	const n = 300
-	best, bq := -1.0, 0.0
-	for i := 1; i <= n; i++ {
-		q := hi * float64(i) / n
+	best, bi := -1.0, 0
+	for i := 0; i <= n; i++ {
+		q := a + (b-a)*float64(i)/n
+		if q <= 0 {
+			continue
+		}
 		if v := p.eff.Eval(q); v > best {
-			best, bq = v, q
+			best, bi = v, i
 		}
 	}
-	lo, up := math.Max(0, bq-hi/n), math.Min(hi, bq+hi/n)
+	step := (b - a) / n
+	lo, up := math.Max(a, a+step*float64(bi-1)), math.Min(b, a+step*float64(bi+1))
 	const g = 0.6180339887498949
 	for it := 0; it < 80; it++ {
 		m1, m2 := up-g*(up-lo), lo+g*(up-lo)
@@ -231,7 +237,13 @@ func (p *Pump) findBEP() {
 		}
 	}
 	q := (lo + up) / 2
+	if bi == n {
+		q = b
+	}
 	p.BEPFlow, p.BEPEff, p.BEPHead = Flow(q), p.eff.Eval(q), Head(p.head.Eval(q))
+	// The maximum sits on an end of the points with the curve still rising
+	// out of the range: the datasheet does not show the BEP.
+	p.bepAtEdge = (bi == n && p.eff.Deriv(b) > 0) || (bi == 0 && a > 0 && p.eff.Deriv(a) < 0)
 }
 
 // HeadPoly returns the fitted head polynomial at rated speed.

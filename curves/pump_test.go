@@ -580,3 +580,25 @@ func TestPumpSpeedCorrectionNearShutoff(t *testing.T) {
 		t.Errorf("η at 30 %% BEP flow, half speed = %.6f, want Sârbu–Borza %.6f", got, 1-0.592*math.Pow(2, 0.1))
 	}
 }
+
+// TestBEPInsidePointsWithCubicUpturn: five points whose cubic efficiency
+// fit turns up again past the last point (55/74/80/79/75 %, a shape the
+// plant loader met) keep their BEP inside the points, near the 80 % point.
+// Invented points; the check is only that the search stays in range.
+func TestBEPInsidePointsWithCubicUpturn(t *testing.T) {
+	g, ft := GPM, Foot
+	pts := []PumpPoint{
+		{Flow: Flow(200 * g), Head: Head(110 * ft), Eff: 0.55},
+		{Flow: Flow(400 * g), Head: Head(104 * ft), Eff: 0.74},
+		{Flow: Flow(600 * g), Head: Head(95 * ft), Eff: 0.80},
+		{Flow: Flow(800 * g), Head: Head(82 * ft), Eff: 0.79},
+		{Flow: Flow(1000 * g), Head: Head(65 * ft), Eff: 0.75},
+	}
+	p, err := NewPump(pts, PumpOptions{})
+	if err != nil {
+		t.Fatalf("NewPump: %v", err)
+	}
+	if p.BEPFlow < pts[1].Flow || p.BEPFlow > pts[3].Flow {
+		t.Errorf("BEP at %.0f gpm, want between the 400 and 800 gpm points", float64(p.BEPFlow)/g)
+	}
+}

@@ -68,10 +68,10 @@ func (s *Solver) unitState(u *unitModel, q, h float64, sp span) Unit {
 	switch {
 	case !u.variable:
 		un.Limit = LimitFixedSpeed
-	case sp.ok && q <= sp.lo+tol && sp.loLim != LimitNone:
-		un.Limit = sp.loLim
+	case sp.ok && q <= sp.lo+tol && sp.loLim != limNone:
+		un.Limit = sp.loLim.Limit()
 	case sp.ok && q >= sp.hi-tol:
-		un.Limit = sp.hiLim
+		un.Limit = sp.hiLim.Limit()
 	}
 	x := q / sv
 	bep := float64(u.pump.BEPFlow)

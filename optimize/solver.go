@@ -32,6 +32,48 @@ type Solver struct {
 	combos [][]int
 	rho    float64
 	spans  []span // scratch
+
+	// Per solve: the head grid of lowestFeasibleHeadValue's scan, shared by
+	// every combo, and each model's span at each grid head (computed once).
+	grid      []float64
+	gridSpan  [][]span
+	gridKnown [][]bool
+}
+
+// gridPoints is the number of steps of the head scan.
+const gridPoints = 48
+
+// resetGrid sets the scan grid for a solve from the required head up to the
+// highest head any unit can make.
+func (s *Solver) resetGrid(hr float64) {
+	top := hr
+	for _, u := range s.units {
+		top = math.Max(top, u.c[0]*u.smax*u.smax)
+	}
+	if s.grid == nil {
+		s.grid = make([]float64, gridPoints+1)
+		s.gridSpan = make([][]span, len(s.units))
+		s.gridKnown = make([][]bool, len(s.units))
+		for i := range s.units {
+			s.gridSpan[i] = make([]span, gridPoints+1)
+			s.gridKnown[i] = make([]bool, gridPoints+1)
+		}
+	}
+	for k := range s.grid {
+		s.grid[k] = hr + (top-hr)*float64(k)/gridPoints
+	}
+	for i := range s.gridKnown {
+		clear(s.gridKnown[i])
+	}
+}
+
+// spanAt returns model i's span at grid head k, computing it once per solve.
+func (s *Solver) spanAt(i, k int) span {
+	if !s.gridKnown[i][k] {
+		s.gridSpan[i][k] = s.units[i].bounds(s.grid[k])
+		s.gridKnown[i][k] = true
+	}
+	return s.gridSpan[i][k]
 }
 
 // New returns a solver for the plant.
@@ -128,6 +170,7 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 		return res
 	}
 	Q := float64(pumped)
+	s.resetGrid(hr)
 	// First pass: every allowed combo at its lowest feasible head, with the
 	// variable units' flow split in proportion to their ranges — exact for a
 	// combo with one variable model, an upper bound on the others' power.
@@ -137,37 +180,46 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 	}
 	var cands []cand
 	quickBest := math.Inf(1)
+	add := func(cnt []int, h float64) {
+		if st, sd := s.atHeadMode(cnt, Q, h, false); sd == fits {
+			cands = append(cands, cand{st, s.variableModels(cnt) <= 1})
+			quickBest = math.Min(quickBest, st.power)
+		}
+	}
+	var rising [][]int
 	for _, cnt := range s.combos {
 		if !c.allows(cnt) {
 			continue
 		}
-		h := hr
-		if _, _, sd := s.sides(cnt, Q, hr, s.spanBuf(len(cnt))); sd != fits {
-			if !s.mayRise(cnt, Q, hr) {
-				continue
-			}
-			if h = s.lowestFeasibleHeadValue(cnt, Q, hr); h <= 0 {
-				continue
-			}
+		if _, _, sd := s.sidesAt(cnt, Q, hr, 0, s.spanBuf(len(cnt))); sd == fits {
+			add(cnt, hr)
+		} else if s.mayRise(cnt, Q, hr) {
+			rising = append(rising, cnt)
 		}
-		st, sd := s.atHeadMode(cnt, Q, h, false)
-		if sd != fits {
-			continue
-		}
-		cands = append(cands, cand{st, s.variableModels(cnt) <= 1})
-		quickBest = math.Min(quickBest, st.power)
 	}
-	// Second pass: the full equal-marginal split for multi-model combos
-	// whose proportional split is within 25 % of the best found — a
-	// proportional split is rarely that far from its own optimum.
+	// Combos that need a higher head: no unit converts more than its best
+	// pump efficiency of ρ g Q H into shaft power, so a combo whose lowest
+	// feasible head already costs more than the best found cannot win.
+	for _, cnt := range rising {
+		h := s.lowestFeasibleHeadBound(cnt, Q, hr, quickBest)
+		if h > 0 {
+			add(cnt, h)
+		}
+	}
+	// Second pass, cheapest proportional split first: the full equal-marginal
+	// split for multi-model combos whose proportional split is within
+	// quickMargin of the best state found so far. Across the optimality
+	// suite a proportional split was never more than 1.1 % above its
+	// combo's own optimum.
+	sort.Slice(cands, func(i, j int) bool { return cands[i].st.power < cands[j].st.power })
 	var best *state
 	var near []*state
 	for _, cd := range cands {
 		st := cd.st
+		if best != nil && st.power > quickMargin*best.power {
+			break // sorted: every later combo is further off
+		}
 		if !cd.exact {
-			if st.power > 1.25*quickBest {
-				continue
-			}
 			if full, sd := s.atHeadMode(st.counts, Q, st.h, true); sd == fits {
 				st = full
 			}
@@ -262,6 +314,12 @@ func (s *Solver) atHeadMode(cnt []int, Q, h float64, full bool) (*state, side) {
 // left for the variable units, their models, and whether the combo fits,
 // moves too much or too little.
 func (s *Solver) sides(cnt []int, Q, h float64, spans []span) (float64, []int, side) {
+	return s.sidesAt(cnt, Q, h, -1, spans)
+}
+
+// sidesAt is sides at head h, which is grid head k when k ≥ 0 (its spans
+// then come from the per-solve cache).
+func (s *Solver) sidesAt(cnt []int, Q, h float64, k int, spans []span) (float64, []int, side) {
 	qvar := Q
 	var vars []int
 	loSum, hiSum := 0.0, 0.0
@@ -270,11 +328,16 @@ func (s *Solver) sides(cnt []int, Q, h float64, spans []span) (float64, []int, s
 			continue
 		}
 		u := s.units[i]
-		sp := u.bounds(h)
+		var sp span
+		if k >= 0 {
+			sp = s.spanAt(i, k)
+		} else {
+			sp = u.bounds(h)
+		}
 		if !sp.ok {
 			// A fixed-speed unit past its runout or overloaded at this head
 			// moves less flow at a higher head; anything else gets worse.
-			if !u.variable && (sp.why == LimitRunout || sp.why == LimitOverload) {
+			if !u.variable && (sp.why == limRunout || sp.why == limOverload) {
 				return 0, nil, tooMuch
 			}
 			return 0, nil, tooLittle
@@ -300,6 +363,12 @@ func (s *Solver) sides(cnt []int, Q, h float64, spans []span) (float64, []int, s
 	}
 	return qvar, vars, fits
 }
+
+// quickMargin bounds how far above the best state a combo's proportional
+// split may be and still get the full allocation (about three times the
+// largest gap between a proportional split and its combo's optimum seen in
+// the optimality suite, 1.1 %).
+const quickMargin = 1.03
 
 // proportional splits qvar among the variable models at one common
 // fraction of each model's allowed range.
@@ -532,7 +601,7 @@ func (s *Solver) power(st *state) float64 {
 
 func (s *Solver) unitPower(u *unitModel, q, h float64) float64 {
 	if !u.variable {
-		return float64(u.chain(q, 1).Electrical)
+		return float64(u.m.Drive.Electrical(u.m.Motor, u.pump.ShaftPower(curves.Flow(q), 1, u.rho), 1))
 	}
 	return u.powerAt(q, h)
 }
@@ -587,24 +656,40 @@ func (s *Solver) lowestFeasibleHead(cnt []int, Q, hr float64) *state {
 
 // lowestFeasibleHeadValue is the head lowestFeasibleHead solves at, or 0.
 func (s *Solver) lowestFeasibleHeadValue(cnt []int, Q, hr float64) float64 {
+	return s.lowestFeasibleHeadBound(cnt, Q, hr, math.Inf(1))
+}
+
+// lowestFeasibleHeadBound is lowestFeasibleHeadValue that gives up (0) as
+// soon as the head reached makes ρ g Q H / η_BEP, a lower bound on the
+// combo's input, exceed bound.
+func (s *Solver) lowestFeasibleHeadBound(cnt []int, Q, hr, bound float64) float64 {
+	etaMax := 0.0
+	for i, n := range cnt {
+		if n > 0 {
+			etaMax = math.Max(etaMax, s.units[i].pump.BEPEff)
+		}
+	}
 	hc := s.headCap(cnt)
 	if hc <= hr {
 		return 0
 	}
 	spans := make([]span, len(cnt))
 	side := func(h float64) side { _, _, sd := s.sides(cnt, Q, h, spans); return sd }
-	const n = 48
-	prev, prevSide := hr, side(hr)
-	for k := 1; k <= n; k++ {
-		h := hr + (hc-hr)*float64(k)/n
-		sd := side(h)
+	prev := hr
+	_, _, prevSide := s.sidesAt(cnt, Q, hr, 0, spans)
+	for k := 1; k <= gridPoints && s.grid[k-1] < hc; k++ {
+		h := s.grid[k]
+		_, _, sd := s.sidesAt(cnt, Q, h, k, spans)
 		crossing := prevSide == tooMuch && sd == tooLittle
 		if sd != fits && !crossing {
 			prev, prevSide = h, sd
 			continue
 		}
+		if s.rho*curves.Gravity*Q*prev/etaMax > bound {
+			return 0
+		}
 		a, b := prev, h
-		for it := 0; it < 100 && b-a > 1e-13*b; it++ {
+		for it := 0; it < 60 && b-a > 1e-11*b; it++ {
 			m := (a + b) / 2
 			switch sm := side(m); {
 			case sm == fits, crossing && sm == tooLittle:

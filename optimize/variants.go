@@ -17,6 +17,9 @@ var _ curves.Drive = ScaledLoss{}
 
 func (d ScaledLoss) Variable() bool   { return d.Drive.Variable() }
 func (d ScaledLoss) Describe() string { return d.Drive.Describe() }
+func (d ScaledLoss) Electrical(m curves.Motor, shaft curves.Power, speed float64) curves.Power {
+	return shaft + curves.Power(d.Factor*float64(d.Drive.Electrical(m, shaft, speed)-shaft))
+}
 func (d ScaledLoss) Input(m curves.Motor, shaft curves.Power, speed float64) curves.Chain {
 	c := d.Drive.Input(m, shaft, speed)
 	loss := float64(c.Electrical - c.Shaft)
