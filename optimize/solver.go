@@ -32,6 +32,7 @@ type Solver struct {
 	combos [][]int
 	rho    float64
 	spans  []span // scratch
+	varBuf []int  // scratch for sidesAt's list of variable models
 
 	// Per solve: the head grid of lowestFeasibleHeadValue's scan, shared by
 	// every combo, and each model's span at each grid head (computed once).
@@ -83,6 +84,7 @@ func New(p *plant.Plant, opt Options) *Solver {
 		s.units = append(s.units, newUnitModel(i, &p.Models[i], s.rho))
 	}
 	s.combos = enumerate(p.Models)
+	s.varBuf = make([]int, 0, len(p.Models))
 	return s
 }
 
@@ -321,7 +323,7 @@ func (s *Solver) sides(cnt []int, Q, h float64, spans []span) (float64, []int, s
 // then come from the per-solve cache).
 func (s *Solver) sidesAt(cnt []int, Q, h float64, k int, spans []span) (float64, []int, side) {
 	qvar := Q
-	var vars []int
+	vars := s.varBuf[:0]
 	loSum, hiSum := 0.0, 0.0
 	for i, n := range cnt {
 		if n == 0 {
@@ -678,6 +680,9 @@ func (s *Solver) lowestFeasibleHeadBound(cnt []int, Q, hr, bound float64) float6
 	prev := hr
 	_, _, prevSide := s.sidesAt(cnt, Q, hr, 0, spans)
 	for k := 1; k <= gridPoints && s.grid[k-1] < hc; k++ {
+		if s.rho*curves.Gravity*Q*s.grid[k-1]/etaMax > bound {
+			return 0 // every head from here on costs more than the bound
+		}
 		h := s.grid[k]
 		_, _, sd := s.sidesAt(cnt, Q, h, k, spans)
 		crossing := prevSide == tooMuch && sd == tooLittle

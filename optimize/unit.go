@@ -27,6 +27,10 @@ type unitModel struct {
 	qrun     float64 // runout at rated speed, m³/s
 	shaftMax float64 // W, rated × service factor
 	rho      float64
+	// mayOverload is false when no allowed state can exceed shaftMax: the
+	// shaft power at top speed, over every flow up to runout, stays below it
+	// (shaft power rises with speed at a given rated-equivalent flow).
+	mayOverload bool
 }
 
 func newUnitModel(idx int, m *plant.Model, rho float64) *unitModel {
@@ -44,7 +48,27 @@ func newUnitModel(idx int, m *plant.Model, rho float64) *unitModel {
 	if u.qrun <= 0 {
 		u.qrun = math.Inf(1)
 	}
+	u.mayOverload = u.peakShaft() > 0.999*u.shaftMax
 	return u
+}
+
+// peakShaft is the largest shaft power at top speed over rated-equivalent
+// flows from zero to runout (or to three times the last datasheet flow),
+// on a 200-point scan: P(X·s, s) = s³·P₀(X) grows with s, so the top speed
+// bounds every state. +Inf where the scan meets an undefined power.
+func (u *unitModel) peakShaft() float64 {
+	top := math.Min(u.qrun, 3*float64(u.pump.LastFlow))
+	peak := 0.0
+	for k := 0; k <= 200; k++ {
+		x := top * float64(k) / 200
+		p := float64(u.pump.ShaftPower(curves.Flow(x*u.smax), u.smax, u.rho))
+		if math.IsNaN(p) || math.IsInf(p, 0) {
+			return math.Inf(1)
+		}
+		// 1 % allowance for the scan's step between points.
+		peak = math.Max(peak, 1.01*p)
+	}
+	return peak
 }
 
 // h0 is the effective head at rated speed at rated-equivalent flow X.
@@ -245,7 +269,7 @@ func (u *unitModel) bounds(h float64) span {
 			sp.hi, sp.hiLim = q, limRunout
 		}
 	}
-	if u.shaftAt(sp.hi, h) > u.shaftMax {
+	if u.mayOverload && u.shaftAt(sp.hi, h) > u.shaftMax {
 		if u.shaftAt(sp.lo, h) > u.shaftMax {
 			return span{why: limOverload}
 		}
