@@ -314,6 +314,11 @@ func writeTrendChecks(out io.Writer, in *planInput, pl *optimize.Plan) {
 	}
 	fmt.Fprintf(out, "- Predicted vs measured power (%s, %d intervals): mean measured %.2f kW, mean error %+.2f kW, NMBE %+.1f %%, CV(RMSE) %.1f %%, largest error %.2f kW\n",
 		o.Run.Name, c.N, c.MeanKW, c.MeanErr, 100*c.NMBE, 100*c.CVRMSE, c.MaxAbs)
+	verdict := "within"
+	if math.Abs(c.NMBE) > 0.10 || c.CVRMSE > 0.30 {
+		verdict = "outside"
+	}
+	fmt.Fprintf(out, "  %s the ASHRAE Guideline 14 hourly calibration criteria (from memory: NMBE within ±10 %%, CV(RMSE) at most 30 %%); calibrate the control head, curves or motor/drive data before relying on savings\n", verdict)
 }
 
 func fmtFlow(u curves.UnitSystem, q curves.Flow) string { return u.FormatFlow(q) }

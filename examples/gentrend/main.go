@@ -5,7 +5,10 @@
 // messiness of a real export built in on purpose: a few logger gaps, a
 // duplicated row, the daylight-saving hours (spring's skipped hour, fall's
 // repeated one), blank and non-numeric cells, and one absurd spike. The
-// pump_kw column is left empty.
+// pump_kw column is an invented meter reading of the pumps' total input:
+// kW = 3.0 + 62·f^2.5 with f the flow over 3000 gpm, times 1 ± 3 % noise,
+// with a few blank readings (meter dropouts) — a plausible plant, not the
+// model's own output, so that predicted-vs-measured shows real residuals.
 //
 // The numbers are a made-up demo scenario, not measurements. The output is
 // deterministic (fixed seed):
@@ -64,6 +67,9 @@ var (
 		"2025-09-03 13:00": "#N/A",  // non-numeric
 		"2025-07-22 15:00": "27150", // absurd spike (a slipped decimal)
 	}
+	kwBlank = map[string]bool{ // meter dropouts: the row stays, without power
+		"2025-05-05 05:00": true, "2025-11-20 14:00": true,
+	}
 	dpCell = map[string]string{
 		"2025-03-28 11:00": "",    // blank: the row stays, without DP
 		"2025-12-12 20:00": "---", // non-numeric: the row stays, DP ignored
@@ -78,6 +84,7 @@ func write(w io.Writer) error {
 	bw := bufio.NewWriter(w)
 	fmt.Fprintln(bw, "timestamp,plant_flow_gpm,loop_dp_psi,pump_kw")
 	rng := rand.New(rand.NewPCG(2025, 7))
+	meter := rand.New(rand.NewPCG(2025, 11)) // separate stream: the flows stay as they were
 	start := time.Date(2025, 1, 1, 0, 0, 0, 0, loc)
 	noise := 0.0
 	for i := range 8760 {
@@ -101,7 +108,12 @@ func write(w io.Writer) error {
 		if v, ok := dpCell[stamp]; ok {
 			dps = v
 		}
-		line := fmt.Sprintf("%s,%s,%s,\n", stamp, flow, dps)
+		f := frac * designGPM / 3000
+		kw := fmt.Sprintf("%.2f", (3.0+62*math.Pow(f, 2.5))*(1+0.03*meter.NormFloat64()))
+		if _, dropout := kwBlank[stamp]; dropout {
+			kw = ""
+		}
+		line := fmt.Sprintf("%s,%s,%s,%s\n", stamp, flow, dps, kw)
 		bw.WriteString(line)
 		if stamp == duplicate {
 			bw.WriteString(line)
