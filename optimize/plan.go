@@ -179,6 +179,7 @@ func NewPlan(p *plant.Plant, steps []Step, opt PlanOptions) (*Plan, error) {
 				o.Run.Name, o.Energy.HoursUnmet, b.Energy.HoursUnmet))
 		}
 	}
+	pl.Warnings = append(pl.Warnings, beatenNotes(pl)...)
 	if p.DesignFlow > 0 {
 		pl.PartLoad = append(pl.PartLoad, CheckPartLoad("lowest-power staging", p, ks[0].Strategy))
 		for _, k := range ks {
@@ -253,4 +254,33 @@ func (pl *Plan) Outcome(key string) *Outcome {
 		}
 	}
 	return nil
+}
+
+// beatenNotes says where a strategy on other equipment (fewer drives)
+// draws less than the lowest-power staging: near full speed a drive's own
+// losses can exceed what speed control saves.
+func beatenNotes(pl *Plan) []string {
+	lo := pl.Outcome(KeyLowest)
+	if lo == nil {
+		return nil
+	}
+	var out []string
+	for _, o := range pl.Outcomes {
+		if o.Key == KeyLowest || o.Run.Drives >= lo.Run.Drives {
+			continue
+		}
+		hours, worst := 0.0, 0.0
+		for i, st := range pl.Steps {
+			a, b := lo.Run.Points[i], o.Run.Points[i]
+			if a.Status == Served && b.Status == Served && b.Power < a.Power {
+				hours += st.Hours
+				worst = max(worst, float64(a.Power-b.Power)/float64(a.Power))
+			}
+		}
+		if hours > 0 {
+			out = append(out, fmt.Sprintf("%s draws less than the lowest-power staging for %.0f h (by up to %.1f %%): near full speed a drive's own losses exceed what speed control saves there; a drive bypass would recover it",
+				o.Run.Name, hours, 100*worst))
+		}
+	}
+	return out
 }
