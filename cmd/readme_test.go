@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"wattstage/cmd"
 )
 
 // readmeCommand is one command shown in the README.
@@ -92,5 +94,49 @@ func TestREADMECommands(t *testing.T) {
 		if !seen[want] {
 			t.Errorf("README.md shows no %q command", want)
 		}
+	}
+}
+
+// TestHelpExamplesRun runs every example line of every command's help
+// (the `Example:` text cobra prints under "Examples:") whose input file is
+// shipped, from the module root, with any workbook redirected into a
+// temporary folder. Each must exit 0.
+func TestHelpExamplesRun(t *testing.T) {
+	root := cmd.NewRootCmd(&cmd.IO{})
+	out := t.TempDir()
+	t.Chdir(moduleRoot)
+	ran := 0
+	for _, c := range root.Commands() {
+		for _, line := range strings.Split(c.Example, "\n") {
+			fields := strings.Fields(line)
+			if len(fields) < 3 || fields[0] != "wattstage" {
+				continue
+			}
+			args := append([]string(nil), fields[1:]...)
+			if _, err := os.Stat(args[1]); err != nil {
+				t.Logf("%s: %s is not shipped; not run", strings.TrimSpace(line), args[1])
+				continue
+			}
+			workbook := ""
+			for i := 0; i+1 < len(args); i++ {
+				if args[i] == "-o" || args[i] == "--output" {
+					workbook = filepath.Join(out, c.Name()+"-"+filepath.Base(args[i+1]))
+					args[i+1] = workbook
+				}
+			}
+			ran++
+			t.Run(strings.Join(fields[1:], " "), func(t *testing.T) {
+				r := run(t, args...)
+				if r.code != 0 || strings.TrimSpace(r.out) == "" {
+					t.Fatalf("%s", r.describe(args))
+				}
+				if workbook != "" && !isWorkbook(t, workbook) {
+					t.Errorf("no workbook at %s", workbook)
+				}
+			})
+		}
+	}
+	if ran < 5 {
+		t.Errorf("ran %d help examples; every command should show at least one on a shipped file", ran)
 	}
 }
