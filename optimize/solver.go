@@ -715,7 +715,18 @@ func (s *Solver) lowestFeasibleHeadBound(cnt []int, Q, hr, bound float64) float6
 // a scan of the feasible heads refined by golden section.
 func (s *Solver) searchHead(st *state, Q, hr float64) *state {
 	h0 := st.h
-	up, _ := s.atHead(st.counts, Q, h0*(1+1e-4)+1e-9)
+	h1 := h0*(1+1e-4) + 1e-9
+	if s.interior(st) {
+		// With every unit inside its limits, the optimum's slope in the head
+		// is the slope at fixed flows (envelope theorem): if holding the
+		// flows and raising the head costs more, no higher head helps.
+		raised := *st
+		raised.h = h1
+		if s.power(&raised) >= st.power {
+			return nil
+		}
+	}
+	up, _ := s.atHead(st.counts, Q, h1)
 	if up == nil || up.power >= st.power {
 		return nil
 	}
@@ -912,6 +923,26 @@ func (u *unitModel) convexOn(sp span, h float64) bool {
 	}
 	for k := 1; k < n; k++ {
 		if p[k+1]-2*p[k]+p[k-1] < -1e-9*p[k] {
+			return false
+		}
+	}
+	return true
+}
+
+// interior reports whether every running unit of a state is variable-speed
+// and strictly inside its allowed flow range at the state's head.
+func (s *Solver) interior(st *state) bool {
+	for i, n := range st.counts {
+		if n == 0 {
+			continue
+		}
+		u := s.units[i]
+		if !u.variable || st.split[i].j > 0 {
+			return false
+		}
+		sp := u.bounds(st.h)
+		tol := 1e-6 * sp.hi
+		if !sp.ok || st.q[i] <= sp.lo+tol || st.q[i] >= sp.hi-tol {
 			return false
 		}
 	}
