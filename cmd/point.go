@@ -3,6 +3,7 @@ package cmd
 import (
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 
@@ -91,7 +92,7 @@ func pointRun(opts *PointOptions) error {
 	if opts.Units < 0 || opts.Units > installed {
 		return badInputf("--units %d: the plant has %d units installed", opts.Units, installed)
 	}
-	var best optimize.Result
+	var best, common optimize.Result
 	var byCount []optimize.Result
 	if opts.Units > 0 {
 		s := optimize.New(p, optimize.Options{CommonSpeed: true})
@@ -100,11 +101,17 @@ func pointRun(opts *PointOptions) error {
 		s := optimize.New(p, optimize.Options{CommonSpeed: opts.CommonSpeed})
 		best = s.Solve(q)
 		byCount = s.ByCount(q)
+		if !opts.CommonSpeed && best.Status == optimize.Served {
+			// The same units at one common speed, to show what unequal speeds save.
+			common = optimize.New(p, optimize.Options{CommonSpeed: true}).SolveWith(q, optimize.Constraint{Counts: best.Counts})
+		}
 	}
 	if opts.JSON {
 		return writeJSON(opts.IO.Out, pointJSON(p, best, byCount))
 	}
 	writePoint(opts.IO.Out, p, best, byCount, opts.Units > 0)
+	writeCommonComparison(opts.IO.Out, p, best, common)
+	writeCautions(opts.IO.Out)
 	return nil
 }
 
@@ -150,7 +157,29 @@ func writePoint(out io.Writer, p *plant.Plant, r optimize.Result, byCount []opti
 			fmt.Fprintln(out, "- "+w)
 		}
 	}
-	writeCautions(out)
+}
+
+// writeCommonComparison says what running the same units at one common
+// speed would draw, so the value of unequal speeds is visible.
+func writeCommonComparison(out io.Writer, p *plant.Plant, best, common optimize.Result) {
+	if best.Status != optimize.Served || common.Counts == nil {
+		return
+	}
+	heading(out, "Unequal against equal speeds")
+	if common.Status != optimize.Served {
+		fmt.Fprintf(out, "The same units cannot serve this flow at one common speed (%s); unequal speeds are needed.\n", common.Reason)
+		return
+	}
+	d := float64(common.Power - best.Power)
+	rel := d / float64(best.Power)
+	switch {
+	case rel > 1e-4:
+		fmt.Fprintf(out, "The same units at one common speed (%s %%) would draw %s kW, %.2f kW (%.2f %%) more: unequal speeds pay here.\n",
+			speedList(common), kw(common.Power), d/1000, 100*rel)
+	default:
+		fmt.Fprintf(out, "The same units at one common speed (%s %%) draw %s kW, within %.3f %% of the best: no unequal split of speeds saves anything worth having at this flow.\n",
+			speedList(common), kw(common.Power), 100*math.Abs(rel))
+	}
 }
 
 func writeUnits(out io.Writer, p *plant.Plant, r optimize.Result) {
