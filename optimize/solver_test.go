@@ -1,6 +1,7 @@
 package optimize
 
 import (
+	"fmt"
 	"math"
 	"testing"
 
@@ -104,4 +105,47 @@ func speeds(r Result) []float64 {
 		v = append(v, math.Round(u.Speed*1000)/1000)
 	}
 	return v
+}
+
+// TestTwelveUnitsSixModels: the solver handles the largest group the brief
+// asks for — 12 installed units in 6 models of different sizes, some fixed
+// speed — and every served result keeps the invariants (flows sum, heads
+// match, input above hydraulic power). Invented plant.
+func TestTwelveUnitsSixModels(t *testing.T) {
+	var ms []plant.Model
+	for i, scale := range []float64{1, 0.9, 0.75, 0.6, 0.5, 0.4} {
+		var d curves.Drive = curves.DOEDrive{}
+		if i == 2 || i == 5 {
+			d = curves.FixedSpeed{}
+		}
+		ms = append(ms, testModel(t, fmt.Sprintf("m%d", i+1), 2, scale, d))
+	}
+	p := testPlant(t, ms...)
+	p.DesignFlow = curves.Flow(7000 * curves.GPM)
+	p.System = curves.DPControl{DesignFlow: p.DesignFlow, DesignHead: curves.Head(88 * curves.Foot), ControlHead: curves.Head(30 * curves.Foot)}
+	s := New(p, Options{})
+	if got, want := len(s.combos), 3*3*3*3*3*3-1; got != want {
+		t.Fatalf("%d combinations of running counts, want %d", got, want)
+	}
+	served := 0
+	for gpm := 500.0; gpm <= 8000; gpm += 500 {
+		r := s.Solve(curves.Flow(gpm * curves.GPM))
+		if r.Status != Served {
+			continue
+		}
+		served++
+		sum := 0.0
+		for _, u := range r.Units {
+			sum += float64(u.Flow)
+			if h := p.Models[u.Model].Pump.Head(u.Flow, u.Speed); math.Abs(float64(h-u.Head)) > 1e-6 {
+				t.Errorf("%v gpm: unit head %v, curve gives %v", gpm, u.Head, h)
+			}
+		}
+		if math.Abs(sum-float64(r.PumpedFlow)) > 1e-9*float64(r.PumpedFlow) || r.Power < r.Hydraulic {
+			t.Errorf("%v gpm: flows %v of %v, power %v vs hydraulic %v", gpm, sum, r.PumpedFlow, r.Power, r.Hydraulic)
+		}
+	}
+	if served < 10 {
+		t.Errorf("only %d of 16 flows served", served)
+	}
 }
