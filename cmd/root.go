@@ -51,12 +51,7 @@ func Main(args []string, in io.Reader, out, errw io.Writer) int {
 	if err == nil {
 		return ExitOK
 	}
-	var list plant.ErrorList
-	if errors.As(err, &list) && len(list) > 1 {
-		fmt.Fprintf(errw, "wattstage: %d problems in the plant file:\n%v\n", len(list), err)
-	} else {
-		fmt.Fprintln(errw, "wattstage:", err)
-	}
+	fmt.Fprintln(errw, "wattstage:", err)
 	var ie inputError
 	var pe *profile.ParseError
 	switch {
