@@ -1,4 +1,4 @@
-package workbook
+package workbook_test
 
 import (
 	"os"
@@ -7,6 +7,9 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"wattstage/workbook"
+	"wattstage/workbook/officecheck"
 )
 
 // TestRenderSummaryAndCurves prints the workbook to PDF through LibreOffice
@@ -17,30 +20,21 @@ import (
 //
 // Set WORKBOOK_RENDER_DIR to keep the PDF and PNGs there.
 func TestRenderSummaryAndCurves(t *testing.T) {
-	soffice := office(t)
-	pdftoppm, err := exec.LookPath("pdftoppm")
-	if err != nil {
-		if os.Getenv("CI") == "true" {
-			t.Fatal("pdftoppm not found and CI=true: install poppler-utils")
-		}
-		t.Skip("pdftoppm not found: install poppler-utils to render the pages")
-	}
-	pdftotext, err := exec.LookPath("pdftotext")
-	if err != nil {
-		t.Skip("pdftotext not found: install poppler-utils")
-	}
+	soffice := officecheck.Soffice(t)
+	pdftoppm := officecheck.Tool(t, "pdftoppm", "poppler-utils")
+	pdftotext := officecheck.Tool(t, "pdftotext", "poppler-utils")
 	out := os.Getenv("WORKBOOK_RENDER_DIR")
 	if out == "" {
 		out = t.TempDir()
 	} else if err := os.MkdirAll(out, 0o755); err != nil {
 		t.Fatal(err)
 	}
-	r := sampleReport()
+	r := workbook.SampleReport()
 	file := filepath.Join(out, "plan.xlsx")
-	if err := Write(file, r, Options{Force: true}); err != nil {
+	if err := workbook.Write(file, r, workbook.Options{Force: true}); err != nil {
 		t.Fatal(err)
 	}
-	pdf := convert(t, soffice, newProfile(t), file, "pdf")
+	pdf := officecheck.Convert(t, soffice, officecheck.Profile(t, officecheck.RecalcAlways), file, "pdf")
 	if err := os.Rename(pdf, filepath.Join(out, "plan.pdf")); err != nil {
 		t.Fatal(err)
 	}
@@ -74,7 +68,7 @@ func TestRenderSummaryAndCurves(t *testing.T) {
 
 	summary := pages[find("Pump group plan: ")]
 	flat := strings.Join(strings.Fields(summary), " ")
-	for _, c := range DefaultCautions {
+	for _, c := range workbook.DefaultCautions {
 		words := strings.Fields(c)
 		if !strings.Contains(flat, strings.Join(words[:6], " ")) {
 			t.Errorf("Summary page lacks the caution %q", c)
