@@ -116,6 +116,14 @@ func setpointsRun(opts *SetpointsOptions) error {
 	if len(in.steps) > 0 && in.steps[0].Timed() {
 		fmt.Fprintf(out, "Derived sequence: %.2f stage changes per day on average, at most %d in one hour\n",
 			price.Cycling.PerDay, price.Cycling.MaxPerHour)
+		for _, m := range price.Cycling.Models {
+			if math.IsNaN(m.Allowed) {
+				fmt.Fprintf(out, "  %s: %d starts a year, at most %d in one hour (no NEMA MG 10 value for this motor)\n", m.Name, m.Starts, m.MaxPerHour)
+				continue
+			}
+			fmt.Fprintf(out, "  %s: %d starts a year, at most %d in one hour, against %.1f starts per hour for its motor size (NEMA MG 10, values from memory)\n",
+				m.Name, m.Starts, m.MaxPerHour, m.Allowed)
+		}
 	}
 	for _, w := range append(sp.Warnings, price.Warnings...) {
 		fmt.Fprintln(out, "Note: "+w)
