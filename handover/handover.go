@@ -103,7 +103,7 @@ func assumptions(p *plant.Plant) []string {
 	out = append(out,
 		"Pumped flow is the larger of the load flow and the plant minimum flow; the bypass carries the difference.",
 		"The header head is at least the system's need at the load flow; above it, valves absorb the excess.",
-		"Affinity laws scale the fitted rated-speed curves: H(Q,s) = s²·H₀(Q/s), η(Q,s) = η₀(Q/s).",
+		"Affinity laws scale the fitted rated-speed curves: H(Q,s) = s²·H₀(Q/s), η(Q,s) = η₀(Q/s), less any efficiency step-down at reduced speed listed above.",
 		"Savings range: control head (or static head) and motor-plus-drive losses moved by ±25 %.",
 		"Results are planning estimates; see the cautions.")
 	return out
@@ -226,8 +226,9 @@ func strategies(r *workbook.Report, pl *optimize.Plan) {
 	if lo := pl.Outcome(optimize.KeyLowest); lo != nil && lo.Appraisal != nil {
 		base := pl.Outcomes[pl.Baseline]
 		a := lo.Appraisal
-		r.Recommendation = fmt.Sprintf("Run the lowest-power staging: %.0f kWh/yr against %.0f kWh/yr for %s (%.0f %% less), saving about %.0f %s/yr; %d drive(s) to buy, simple payback %s. Program it with the staging setpoints on the Staging sheet.",
-			lo.Energy.KWh, base.Energy.KWh, base.Run.Name, 100*a.EnergySaved/math.Max(base.Energy.KWh, 1e-9), a.AnnualSavings, r.Units.Currency,
+		// The Summary adds where the setpoints are; numbers grouped as its table shows them.
+		r.Recommendation = fmt.Sprintf("Run the lowest-power staging: %s kWh/yr against %s kWh/yr for %s (%.0f %% less), saving about %s %s/yr; %d drive(s) to buy, simple payback %s.",
+			grouped(lo.Energy.KWh), grouped(base.Energy.KWh), base.Run.Name, 100*a.EnergySaved/math.Max(base.Energy.KWh, 1e-9), grouped(a.AnnualSavings), r.Units.Currency,
 			lo.DrivesAdded, paybackWords(a.SimplePayback))
 		r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: "Savings, expected (as given)", Value: a.EnergySaved, Unit: "kWh/yr"})
 	}
@@ -235,6 +236,23 @@ func strategies(r *workbook.Report, pl *optimize.Plan) {
 		r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: fmt.Sprintf("Savings, %s (control head × %.2f, losses × %.2f)",
 			rc.Sensitivity.Label, rc.Sensitivity.ControlScale, rc.Sensitivity.LossScale), Value: rc.SavedKWh, Unit: "kWh/yr"})
 	}
+}
+
+// grouped writes v rounded to a whole number with thousands separators,
+// e.g. 122,665.
+func grouped(v float64) string {
+	digits := fmt.Sprintf("%.0f", math.Abs(v))
+	var b strings.Builder
+	if math.Round(v) < 0 {
+		b.WriteByte('-')
+	}
+	for i, d := range digits {
+		if i > 0 && (len(digits)-i)%3 == 0 {
+			b.WriteByte(',')
+		}
+		b.WriteRune(d)
+	}
+	return b.String()
 }
 
 func paybackWords(y float64) string {
@@ -372,8 +390,14 @@ func curveTables(p *plant.Plant, ks []optimize.Keyed) workbook.Curves {
 		}
 		for units := 1; units <= unitsTotal(p); units++ {
 			ss := workbook.Series{Name: fmt.Sprintf("system, %d running", units)}
+			// Up to a tenth past the design flow shared by the running units:
+			// beyond it the curve only stretches the head axis.
+			span := top
+			if p.DesignFlow > 0 {
+				span = min(top, 1.1*p.DesignFlow/curves.Flow(units))
+			}
 			for k := 0; k <= n; k++ {
-				q := curves.Flow(float64(top) * float64(k) / n)
+				q := curves.Flow(float64(span) * float64(k) / n)
 				ss.X = append(ss.X, u.FlowOut(q))
 				ss.Y = append(ss.Y, u.HeadOut(p.System.Required(q*curves.Flow(units))))
 			}

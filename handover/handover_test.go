@@ -11,8 +11,10 @@ import (
 
 	"github.com/xuri/excelize/v2"
 
+	"wattstage/curves"
 	"wattstage/handover"
 	"wattstage/optimize"
+	"wattstage/plant"
 	"wattstage/workbook"
 )
 
@@ -59,8 +61,20 @@ func TestStrategiesMatchPlan(t *testing.T) {
 				t.Errorf("baseline %d, plan %d (%s); want the throttled strategy (optimize.PlanOptions default)",
 					r.Baseline, pl.Baseline, pl.Outcomes[pl.Baseline].Key)
 			}
-			if r.Recommendation == "" || len(r.SavingsRange) != 1+len(pl.Range) {
-				t.Errorf("recommendation %q, %d savings-range rows for %d range cases", r.Recommendation, len(r.SavingsRange), len(pl.Range))
+			if len(r.SavingsRange) != 1+len(pl.Range) {
+				t.Errorf("%d savings-range rows for %d range cases", len(r.SavingsRange), len(pl.Range))
+			}
+			// The recommendation gives the energies as the Summary's table
+			// shows them (grouped thousands) and leaves the pointer to the
+			// Staging sheet to the Summary, which adds it.
+			lo, base := pl.Outcome(optimize.KeyLowest), pl.Outcomes[pl.Baseline]
+			for _, want := range []string{thousands(lo.Energy.KWh) + " kWh/yr", thousands(base.Energy.KWh) + " kWh/yr for " + base.Run.Name} {
+				if !strings.Contains(r.Recommendation, want) {
+					t.Errorf("recommendation %q lacks %q", r.Recommendation, want)
+				}
+			}
+			if strings.Contains(r.Recommendation, "Staging sheet") {
+				t.Errorf("recommendation %q points to the Staging sheet; the Summary already does", r.Recommendation)
 			}
 		})
 	}
@@ -237,6 +251,7 @@ func TestCharts(t *testing.T) {
 		t.Run(name, func(t *testing.T) {
 			ex := loadExample(t, name)
 			r, p := ex.report, ex.plant
+			u := p.Units
 			c := r.Curves
 			if len(c.Head) != len(p.Models) || len(c.Efficiency) != len(p.Models) {
 				t.Fatalf("%d head and %d efficiency charts for %d pump models", len(c.Head), len(c.Efficiency), len(p.Models))
@@ -270,9 +285,17 @@ func TestCharts(t *testing.T) {
 					t.Errorf("charts of %s titled %q and %q", m.Name, hc.Title, c.Efficiency[i].Title)
 				}
 				systems := 0
+				design := u.FlowOut(p.DesignFlow)
 				for _, s := range hc.Series {
-					if strings.HasPrefix(s.Name, "system, ") {
+					var n float64
+					if _, err := fmt.Sscanf(s.Name, "system, %g running", &n); err == nil {
+						// The system curve shared by n units spans the design flow
+						// (where the units can reach it) and a tenth past it.
 						systems++
+						last := n * s.X[len(s.X)-1]
+						if last > 1.1*design*(1+1e-9) || n*u.FlowOut(top(m)) >= design && last < design {
+							t.Errorf("%s, %s: ends at %v %s of plant flow, want the design %v to 1.1 × design", m.Name, s.Name, last, u.FlowUnit(), design)
+						}
 						continue
 					}
 					checkAffinity(t, hc.Title, s, r.Pumps[i].HeadFit)
@@ -283,6 +306,28 @@ func TestCharts(t *testing.T) {
 			}
 		})
 	}
+}
+
+// top is the largest flow per unit a model's charts show: its runout, or
+// the last datasheet flow.
+func top(m plant.Model) curves.Flow {
+	if m.Runout > 0 {
+		return m.Runout
+	}
+	return m.Pump.LastFlow
+}
+
+// thousands writes v rounded to a whole number with a comma between
+// groups of three digits, e.g. 122,665.
+func thousands(v float64) string {
+	n := int64(math.Round(v))
+	if n < 0 {
+		return "-" + thousands(float64(-n))
+	}
+	if n < 1000 {
+		return strconv.FormatInt(n, 10)
+	}
+	return thousands(float64(n/1000)) + fmt.Sprintf(",%03d", n%1000)
 }
 
 // checkAffinity checks a head series named "NN % speed" against the fitted
