@@ -15,7 +15,7 @@ func writeWorkbook(path, input string, force bool, in *planInput, pl *optimize.P
 		Staging: stagingFor(in.plant)}
 	if in.binned != nil && len(pl.Steps) != len(in.binned.Bins) {
 		hi.LoadSteps = optimize.StepsFromBinned(in.binned)
-		hi.LoadNote = fmt.Sprintf("Load points show the trend binned into %d bins of %s (annual totals are from every interval; wattstage plan --json gives every interval).",
+		hi.LoadNote = fmt.Sprintf("Load points show the trend binned into %d bins of %s; the annual totals come from every interval (wattstage plan --json gives every interval). Strategies that stage in time order with delays and hysteresis (the current sequence, the derived setpoints) are shown at each bin as if the flow rose to it, so their bin kWh do not add up to their annual totals.",
 			len(in.binned.Bins), in.plant.Units.FormatFlow(in.binned.Width))
 	}
 	rep, err := handover.Build(hi)
