@@ -42,7 +42,7 @@ savings range, the part-load and one-unit-out checks and the cautions.
 With -o the same goes into an Excel workbook to hand over.`,
 		Example: `  wattstage plan examples/chilled-water.yaml
   wattstage plan examples/chilled-water.yaml -o chilled-water.xlsx
-  wattstage plan examples/chilled-water-trend.yaml --baseline current
+  wattstage plan examples/chilled-water-trend.yaml --baseline throttled
   wattstage plan examples/condenser-water.yaml --json`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
@@ -57,7 +57,7 @@ With -o the same goes into an Excel workbook to hand over.`,
 	f.StringVarP(&opts.Output, "output", "o", "", "write the workbook to this .xlsx file")
 	f.BoolVar(&opts.Force, "force", false, "replace an existing workbook")
 	f.BoolVar(&opts.JSON, "json", false, "write the full result as JSON")
-	f.StringVar(&opts.Baseline, "baseline", "", "strategy to count savings against: throttled (default), bypass, current, common, partial")
+	f.StringVar(&opts.Baseline, "baseline", "", "strategy to count savings against: current, throttled, bypass, common, partial, derived (default: current when the plant file gives its sequence, else throttled)")
 	f.StringVar(&opts.BinWidth, "bin-width", "", "with a trend: bin the flows by this width (plant flow unit) instead of solving every interval")
 	return c
 }
@@ -211,6 +211,8 @@ func writePlan(out io.Writer, in *planInput, pl *optimize.Plan) {
 				num(rc.SavedKWh, 0), num(rc.SavedCost, 0))
 		}
 		t.flush()
+		lo, hi := lowHigh(pl, lo.Appraisal.EnergySaved)
+		fmt.Fprintf(out, "Savings range: %.0f to %.0f kWh/yr (expected %.0f)\n", lo, hi, pl.Outcome(optimize.KeyLowest).Appraisal.EnergySaved)
 	}
 
 	heading(out, "Checks")
@@ -265,6 +267,16 @@ func writePlan(out io.Writer, in *planInput, pl *optimize.Plan) {
 		}
 	}
 	writeCautions(out)
+}
+
+// lowHigh returns the smallest and largest energy savings over the
+// expected case and the sensitivity cases.
+func lowHigh(pl *optimize.Plan, expected float64) (float64, float64) {
+	lo, hi := expected, expected
+	for _, rc := range pl.Range {
+		lo, hi = math.Min(lo, rc.SavedKWh), math.Max(hi, rc.SavedKWh)
+	}
+	return lo, hi
 }
 
 func appendOnce(list []string, s string) []string {

@@ -9,7 +9,6 @@ import (
 
 	"wattstage/optimize"
 	"wattstage/plant"
-	"wattstage/workbook"
 )
 
 // SetpointsOptions are the inputs of `wattstage setpoints`.
@@ -154,93 +153,4 @@ func derivedStrategy(p *plant.Plant) []optimize.Keyed {
 		return nil
 	}
 	return []optimize.Keyed{{Key: optimize.KeyDerived, Strategy: optimize.NewSequenced("derived setpoints", sp, optimize.FlowBasis)}}
-}
-
-// stagingFor returns the staging sheet's content from the derived setpoints.
-func stagingFor(p *plant.Plant) workbook.Staging {
-	sp, err := optimize.DeriveSetpoints(p, optimize.SetpointOptions{})
-	if err != nil {
-		return workbook.Staging{Settings: []workbook.Quantity{{Label: "Setpoints", Text: "could not be derived: " + err.Error()}}}
-	}
-	u := p.Units
-	var st workbook.Staging
-	speed := func(v float64) float64 {
-		if math.IsNaN(v) {
-			return math.NaN()
-		}
-		return 100 * v
-	}
-	for _, t := range sp.Transitions {
-		st.Rows = append(st.Rows, workbook.StagingRow{From: sumInts(t.Lower), To: sumInts(t.Upper), Units: startStopWords(p, t.Start, t.Stop),
-			UpSpeed: speed(t.Up.Speed), UpFlow: u.FlowOut(t.Up.Flow), UpDelay: t.Up.Delay.Minutes(),
-			DownSpeed: speed(t.Down.Speed), DownFlow: u.FlowOut(t.Down.Flow), DownDelay: t.Down.Delay.Minutes(),
-			Note: fmt.Sprintf("up set by %s; down set by %s", t.Up.Limit, t.Down.Limit)})
-	}
-	o := sp.Options
-	st.Settings = []workbook.Quantity{
-		{Label: "Deadband (stage-down below stage-up)", Value: 100 * o.Deadband, Unit: "% of stage-up flow", Decimals: 0},
-		{Label: "Speed margin", Value: 100 * o.SpeedMargin, Unit: "% of rated speed", Decimals: 0},
-		{Label: "Capacity margin", Value: 100 * o.CapacityMargin, Unit: "% below running out", Decimals: 0},
-		{Label: "Stage-up delay", Value: o.UpDelay.Minutes(), Unit: "min", Decimals: 0},
-		{Label: "Stage-down delay", Value: o.DownDelay.Minutes(), Unit: "min", Decimals: 0},
-		{Label: "Lead/lag rotation", Text: "rotate the lead unit of each model weekly or by run hours (common practice)"},
-	}
-	for _, para := range splitParagraphs(sp.SequenceOfOperation()) {
-		st.Sequence = append(st.Sequence, para)
-	}
-	return st
-}
-
-func sumInts(v []int) int {
-	n := 0
-	for _, x := range v {
-		n += x
-	}
-	return n
-}
-
-func startStopWords(p *plant.Plant, start, stop []int) string {
-	s := ""
-	for i, n := range start {
-		if n > 0 {
-			s += fmt.Sprintf("+%d × %s ", n, p.Models[i].Name)
-		}
-	}
-	for i, n := range stop {
-		if n > 0 {
-			s += fmt.Sprintf("−%d × %s ", n, p.Models[i].Name)
-		}
-	}
-	return s
-}
-
-func splitParagraphs(text string) []string {
-	var out []string
-	cur := ""
-	for _, line := range append(splitLines(text), "") {
-		if line == "" {
-			if cur != "" {
-				out = append(out, cur)
-			}
-			cur = ""
-			continue
-		}
-		if cur != "" {
-			cur += " "
-		}
-		cur += line
-	}
-	return out
-}
-
-func splitLines(s string) []string {
-	var out []string
-	start := 0
-	for i := 0; i < len(s); i++ {
-		if s[i] == '\n' {
-			out = append(out, s[start:i])
-			start = i + 1
-		}
-	}
-	return append(out, s[start:])
 }

@@ -175,10 +175,14 @@ func (a *Appraisal) MarshalJSON() ([]byte, error) {
 	}{(*plain)(a), fin(a.SimplePayback), fin(a.DiscountedPayback), fin(a.SIR)})
 }
 
-// PaybackText writes a payback period for a report: "4.2 years" or "never".
+// PaybackText writes a payback period for a report: "4.2 years", "never",
+// or "immediate" where nothing is invested.
 func PaybackText(years float64) string {
 	if math.IsInf(years, 1) || math.IsNaN(years) {
 		return "never"
+	}
+	if years == 0 {
+		return "immediate"
 	}
 	return fmt.Sprintf("%.1f years", years)
 }

@@ -212,6 +212,9 @@ func TestAppraisalJSON(t *testing.T) {
 	if got := PaybackText(a.SimplePayback); got != "never" {
 		t.Errorf("PaybackText(+Inf) = %q", got)
 	}
+	if got := PaybackText(0); got != "immediate" {
+		t.Errorf("PaybackText(0) = %q", got)
+	}
 	if got := PaybackText(2.449); got != "2.4 years" {
 		t.Errorf("PaybackText(2.449) = %q", got)
 	}

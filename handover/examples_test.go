@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"path/filepath"
-	"strings"
 	"sync"
 	"testing"
 
@@ -98,44 +97,9 @@ func buildExample(name string) (*example, error) {
 	return ex, nil
 }
 
-// staging is the Staging sheet's content from the derived setpoints, in
-// the shape cmd's stagingFor gives it (rows, delays and the sequence), so
-// the sheet's band formulas are checked on real setpoints.
-func staging(p *plant.Plant) workbook.Staging {
-	sp, err := optimize.DeriveSetpoints(p, optimize.SetpointOptions{})
-	if err != nil {
-		return workbook.Staging{}
-	}
-	u := p.Units
-	sum := func(v []int) int {
-		n := 0
-		for _, x := range v {
-			n += x
-		}
-		return n
-	}
-	var st workbook.Staging
-	for _, tr := range sp.Transitions {
-		var added []string
-		for i, n := range tr.Start {
-			if n > 0 {
-				added = append(added, fmt.Sprintf("+%d × %s", n, p.Models[i].Name))
-			}
-		}
-		st.Rows = append(st.Rows, workbook.StagingRow{From: sum(tr.Lower), To: sum(tr.Upper), Units: strings.Join(added, " "),
-			UpSpeed: 100 * tr.Up.Speed, UpFlow: u.FlowOut(tr.Up.Flow), UpDelay: tr.Up.Delay.Minutes(),
-			DownSpeed: 100 * tr.Down.Speed, DownFlow: u.FlowOut(tr.Down.Flow), DownDelay: tr.Down.Delay.Minutes()})
-	}
-	for _, para := range strings.Split(sp.SequenceOfOperation(), "\n\n") {
-		if para = strings.TrimSpace(para); para != "" {
-			st.Sequence = append(st.Sequence, strings.Join(strings.Fields(para), " "))
-		}
-	}
-	return st
-}
+// staging is the Staging sheet's content, as the CLI gives it.
+func staging(p *plant.Plant) workbook.Staging { return handover.Staging(p) }
 
-// near reports whether got is within a relative tol of want (absolute
-// when want is zero); two NaNs are near.
 func near(got, want, tol float64) bool {
 	if math.IsNaN(got) || math.IsNaN(want) {
 		return math.IsNaN(got) && math.IsNaN(want)

@@ -233,8 +233,8 @@ func strategies(r *workbook.Report, pl *optimize.Plan) {
 		r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: "Savings, expected (as given)", Value: a.EnergySaved, Unit: "kWh/yr"})
 	}
 	for _, rc := range pl.Range {
-		r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: fmt.Sprintf("Savings, %s (control head × %.2f, losses × %.2f)",
-			rc.Sensitivity.Label, rc.Sensitivity.ControlScale, rc.Sensitivity.LossScale), Value: rc.SavedKWh, Unit: "kWh/yr"})
+		r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: fmt.Sprintf("Savings, control head × %.2f and losses × %.2f",
+			rc.Sensitivity.ControlScale, rc.Sensitivity.LossScale), Value: rc.SavedKWh, Unit: "kWh/yr"})
 	}
 }
 

@@ -57,9 +57,9 @@ func TestStrategiesMatchPlan(t *testing.T) {
 					t.Errorf("%s: untimed bins have no monthly peaks, yet billed demand %v (0 stands for 12 × peak)", o.Run.Name, s.BilledDemand)
 				}
 			}
-			if r.Baseline != pl.Baseline || pl.Outcomes[pl.Baseline].Key != optimize.KeyThrottled {
-				t.Errorf("baseline %d, plan %d (%s); want the throttled strategy (optimize.PlanOptions default)",
-					r.Baseline, pl.Baseline, pl.Outcomes[pl.Baseline].Key)
+			if want := optimize.DefaultBaseline(ex.plant); r.Baseline != pl.Baseline || pl.Outcomes[pl.Baseline].Key != want {
+				t.Errorf("baseline %d, plan %d (%s); want %s (optimize.DefaultBaseline)",
+					r.Baseline, pl.Baseline, pl.Outcomes[pl.Baseline].Key, want)
 			}
 			if len(r.SavingsRange) != 1+len(pl.Range) {
 				t.Errorf("%d savings-range rows for %d range cases", len(r.SavingsRange), len(pl.Range))

@@ -19,10 +19,21 @@ const (
 	KeyBypass    = "bypass"
 )
 
+// DefaultBaseline is the strategy savings are counted against when none is
+// chosen: the plant's current sequence where the file gives one (the plant
+// runs on drives today: the question is tuning), else fixed speed with
+// throttling (the question is a drive retrofit).
+func DefaultBaseline(p *plant.Plant) string {
+	if p.Sequence != nil && drives(p) > 0 {
+		return KeyCurrent
+	}
+	return KeyThrottled
+}
+
 // PlanOptions set up an annual comparison.
 type PlanOptions struct {
 	// Baseline is the key of the strategy savings are counted against;
-	// empty means KeyThrottled.
+	// empty means DefaultBaseline.
 	Baseline string
 	// Sensitivities are the cases of the savings range; nil means
 	// DefaultSensitivities, an empty non-nil slice none.
@@ -81,15 +92,19 @@ type Plan struct {
 
 // Strategies returns the standard strategies for a plant, in report order.
 func Strategies(p *plant.Plant) []Keyed {
+	common := NewLowest("best count, one common speed", p, Options{CommonSpeed: true})
+	common.Note = "the lowest-power count of running units, all at one common speed signal"
 	ks := []Keyed{
 		{KeyLowest, NewLowest("lowest-power staging", p, Options{})},
-		{KeyCommon, NewLowest("best count, one common speed", p, Options{CommonSpeed: true})},
+		{KeyCommon, common},
 	}
 	if p.Sequence != nil && drives(p) > 0 {
 		ks = append(ks, Keyed{KeyCurrent, NewStaged("current sequence", p, *p.Sequence)})
 	}
 	if v, label := partialRetrofit(p); v != nil {
-		ks = append(ks, Keyed{KeyPartial, NewLowest(label, v, Options{})})
+		l := NewLowest(label, v, Options{})
+		l.Note = "lowest-power staging with one unit of the largest model left across the line (a partial drive retrofit)"
+		ks = append(ks, Keyed{KeyPartial, l})
 	}
 	ks = append(ks,
 		Keyed{KeyThrottled, NewThrottled("fixed speed, throttled", p)},
@@ -132,7 +147,7 @@ func NewPlan(p *plant.Plant, steps []Step, opt PlanOptions) (*Plan, error) {
 	ks := append(Strategies(p), opt.Extra...)
 	base := opt.Baseline
 	if base == "" {
-		base = KeyThrottled
+		base = DefaultBaseline(p)
 	}
 	pl := &Plan{Plant: p, Steps: steps, Baseline: -1, Strategies: ks}
 	for i, k := range ks {

@@ -49,6 +49,7 @@ var (
 // Lowest runs the lowest-power staging at every step.
 type Lowest struct {
 	Label  string
+	Note   string // how it runs the plant, in plain words; empty = the default
 	Plant  *plant.Plant
 	Solver *Solver
 }
@@ -60,8 +61,10 @@ func NewLowest(label string, p *plant.Plant, opt Options) *Lowest {
 
 func (l *Lowest) Name() string { return l.Label }
 func (l *Lowest) Run(steps []Step) Run {
-	r := Run{Name: l.Label, Drives: drives(l.Plant), Plant: l.Plant,
-		Note: "the lowest-power count of running units and their speeds at every step"}
+	r := Run{Name: l.Label, Drives: drives(l.Plant), Plant: l.Plant, Note: l.Note}
+	if r.Note == "" {
+		r.Note = "the lowest-power count of running units and their speeds at every step"
+	}
 	prev := -1
 	for _, st := range steps {
 		res := l.Solver.Solve(st.Load)

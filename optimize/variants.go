@@ -41,13 +41,13 @@ type Sensitivity struct {
 	LossScale    float64 // motor and drive losses multiplied by this
 }
 
-// DefaultSensitivities are the low and high cases of the savings range: the
+// DefaultSensitivities are the cases of the savings range: the
 // control head and the motor/drive losses moved by ±25 %, the spread of
 // setpoints seen on site and of part-load loss data (common practice; the
 // bounds are stated in every report).
 var DefaultSensitivities = []Sensitivity{
-	{Label: "low savings", ControlScale: 1.25, LossScale: 1.25},
-	{Label: "high savings", ControlScale: 0.75, LossScale: 0.75},
+	{Label: "control head and losses +25 %", ControlScale: 1.25, LossScale: 1.25},
+	{Label: "control head and losses −25 %", ControlScale: 0.75, LossScale: 0.75},
 }
 
 // Vary returns a copy of the plant with the sensitivity applied.
