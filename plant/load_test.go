@@ -115,8 +115,6 @@ func TestChilledWaterExample(t *testing.T) {
 		{"reset low flow 40 %", float64(p.System.(curves.DPControl).Reset.LowFlow), 0.4 * 3000 * nistGallon / 60},
 		{"bin 25 % of design", float64(p.Profile.Bins[0].Flow), 0.25 * 3000 * nistGallon / 60},
 		{"bin hours add to a year", sumHours(p.Profile.Bins), 8760}, // hours in a non-leap year, common practice
-		{"stage up 95 %", p.Sequence.StageUpSpeed, 0.95},
-		{"stage down 45 %", p.Sequence.StageDownSpeed, 0.45},
 		{"discount 5 %", p.Retrofit.DiscountRate, 0.05},
 		// 10 CFR 431.25 Table 5 [V in DOMAIN.md for 25 hp 4-pole: 93.6 %];
 		// curves' table gives 30 hp the same value (from memory there).
@@ -136,6 +134,15 @@ func TestChilledWaterExample(t *testing.T) {
 	}
 	if !p.HasRetrofit || p.Retrofit.DriveCost != 7800 {
 		t.Errorf("retrofit %+v (given %v)", p.Retrofit, p.HasRetrofit)
+	}
+	// The bins example is the retrofit study: no current sequence; the
+	// trend example is the plant on drives today, with its thresholds.
+	if p.Sequence != nil {
+		t.Errorf("the retrofit example has a current sequence %+v", *p.Sequence)
+	}
+	tr := mustLoad(t, "../examples/chilled-water-trend.yaml")
+	if tr.Sequence == nil || tr.Sequence.StageUpSpeed != 0.95 || tr.Sequence.StageDownSpeed != 0.45 {
+		t.Errorf("trend example sequence %+v, want stage up 95 %%, down 45 %%", tr.Sequence)
 	}
 }
 
