@@ -353,7 +353,7 @@ func (s *Solver) sidesAt(cnt []int, Q, h float64, k int, spans []span) (float64,
 		loSum += float64(n) * sp.lo
 		hiSum += float64(n) * sp.hi
 	}
-	tol := 1e-9 * Q
+	tol := 1e-11 * Q
 	if len(vars) == 0 {
 		loSum, hiSum = 0, 0
 	}
@@ -569,10 +569,15 @@ func (s *Solver) commonSpeed(st *state, vars []int, spans []span, qvar float64) 
 		}
 	}
 	flows((a + b) / 2)
-	// Put the rounding remainder on the first model so that flows sum exactly.
+	// Put the rounding remainder on the first model so that flows sum
+	// exactly — only a rounding remainder: where the flows jump with speed
+	// (a unit that only just reaches the head) there is no common speed.
 	sum := 0.0
 	for _, i := range vars {
 		sum += float64(st.counts[i]) * st.q[i]
+	}
+	if math.Abs(qvar-sum) > 1e-9*math.Max(qvar, 1e-12) {
+		return false
 	}
 	st.q[vars[0]] += (qvar - sum) / float64(st.counts[vars[0]])
 	for _, i := range vars {
@@ -694,7 +699,13 @@ func (s *Solver) lowestFeasibleHeadBound(cnt []int, Q, hr, bound float64) float6
 			return 0
 		}
 		a, b := prev, h
-		for it := 0; it < 60 && b-a > 1e-11*b; it++ {
+		// Fixed-speed units alone (a crossing) cannot share out a mismatch,
+		// so their head is found to the last digits.
+		prec := 1e-13
+		if crossing {
+			prec = 1e-15
+		}
+		for it := 0; it < 80 && b-a > prec*b; it++ {
 			m := (a + b) / 2
 			switch sm := side(m); {
 			case sm == fits, crossing && sm == tooLittle:

@@ -48,6 +48,13 @@ func newUnitModel(idx int, m *plant.Model, rho float64) *unitModel {
 	if u.qrun <= 0 {
 		u.qrun = math.Inf(1)
 	}
+	// A humped (drooping) curve: run only on its falling branch, 2 % right
+	// of the peak, where flow is a well-defined function of head (on the
+	// rising side two flows share a head and parallel units hunt; common
+	// practice). The peak acts as a further minimum flow.
+	if xp := u.peakX(); xp > 0 {
+		u.qmin = math.Max(u.qmin, 1.02*xp)
+	}
 	u.mayOverload = u.peakShaft() > 0.999*u.shaftMax
 	return u
 }
@@ -69,6 +76,35 @@ func (u *unitModel) peakShaft() float64 {
 		peak = math.Max(peak, 1.01*p)
 	}
 	return peak
+}
+
+// peakX returns the rated-equivalent flow at the peak of the effective head
+// curve, or 0 where the curve falls from zero flow.
+func (u *unitModel) peakX() float64 {
+	top := 3 * float64(u.pump.LastFlow)
+	best, bx := u.h0(0), 0.0
+	const n = 600
+	for k := 1; k <= n; k++ {
+		x := top * float64(k) / n
+		if v := u.h0(x); v > best {
+			best, bx = v, x
+		}
+	}
+	if bx == 0 {
+		return 0
+	}
+	// Refine by golden section around the best sample.
+	a, b := math.Max(0, bx-top/n), bx+top/n
+	const g = 0.6180339887498949
+	for it := 0; it < 60; it++ {
+		m1, m2 := b-g*(b-a), a+g*(b-a)
+		if u.h0(m1) < u.h0(m2) {
+			a = m1
+		} else {
+			b = m2
+		}
+	}
+	return (a + b) / 2
 }
 
 // h0 is the effective head at rated speed at rated-equivalent flow X.
