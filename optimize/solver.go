@@ -353,7 +353,7 @@ func (s *Solver) sidesAt(cnt []int, Q, h float64, k int, spans []span) (float64,
 		loSum += float64(n) * sp.lo
 		hiSum += float64(n) * sp.hi
 	}
-	tol := 1e-11 * Q
+	tol := 1e-10 * Q
 	if len(vars) == 0 {
 		loSum, hiSum = 0, 0
 	}
@@ -701,7 +701,7 @@ func (s *Solver) lowestFeasibleHeadBound(cnt []int, Q, hr, bound float64) float6
 		a, b := prev, h
 		// Fixed-speed units alone (a crossing) cannot share out a mismatch,
 		// so their head is found to the last digits.
-		prec := 1e-13
+		prec := 1e-12
 		if crossing {
 			prec = 1e-15
 		}
