@@ -34,6 +34,9 @@ type Solver struct {
 	spans  []span // scratch
 	varBuf []int  // scratch for sidesAt's list of variable models
 
+	allocSpans, scanSpans []span    // scratch of atHeadMode and the head scan
+	floatBuf              []float64 // scratch of equalMarginal
+
 	// Per solve: the head grid of lowestFeasibleHeadValue's scan, shared by
 	// every combo, and each model's span at each grid head (computed once).
 	grid      []float64
@@ -281,12 +284,12 @@ func (s *Solver) atHead(cnt []int, Q, h float64) (*state, side) {
 // atHeadMode is atHead; with full false the variable units' flow is split in
 // proportion to their allowed ranges instead of at equal marginal power.
 func (s *Solver) atHeadMode(cnt []int, Q, h float64, full bool) (*state, side) {
-	spans := make([]span, len(cnt))
+	spans := s.scratch(&s.allocSpans, len(cnt))
 	qvar, vars, sd := s.sides(cnt, Q, h, spans)
 	if sd != fits {
 		return nil, sd
 	}
-	st := &state{counts: cnt, h: h, q: make([]float64, len(cnt)), split: make([]split, len(cnt))}
+	st := newState(cnt, h)
 	for i, n := range cnt {
 		if n > 0 && !s.units[i].variable {
 			st.q[i] = spans[i].lo
@@ -401,6 +404,42 @@ func (s *Solver) variableModels(cnt []int) int {
 	return k
 }
 
+// scratch returns a zeroed scratch slice of spans held in *buf.
+func (s *Solver) scratch(buf *[]span, n int) []span {
+	if cap(*buf) < n {
+		*buf = make([]span, n)
+	}
+	b := (*buf)[:n]
+	clear(b)
+	return b
+}
+
+// floats returns a zeroed scratch slice of n floats.
+func (s *Solver) floats(n int) []float64 {
+	if cap(s.floatBuf) < n {
+		s.floatBuf = make([]float64, n)
+	}
+	b := s.floatBuf[:n]
+	clear(b)
+	return b
+}
+
+// newState makes a state whose per-model slices share one allocation.
+func newState(cnt []int, h float64) *state {
+	n := len(cnt)
+	type block struct {
+		st state
+		q  [8]float64
+		sp [8]split
+	}
+	if n <= 8 {
+		b := &block{}
+		b.st = state{counts: cnt, h: h, q: b.q[:n], split: b.sp[:n]}
+		return &b.st
+	}
+	return &state{counts: cnt, h: h, q: make([]float64, n), split: make([]split, n)}
+}
+
 // spanBuf returns a scratch slice of spans.
 func (s *Solver) spanBuf(n int) []span {
 	if cap(s.spans) < n {
@@ -440,10 +479,8 @@ func (s *Solver) equalMarginal(st *state, vars []int, spans []span, qvar float64
 		}
 		return sum
 	}
-	g := make([]float64, len(st.q))
-	hh := make([]float64, len(st.q))
-	d := make([]float64, len(st.q))
-	trial := make([]float64, len(st.q))
+	buf := s.floats(4 * len(st.q))
+	g, hh, d, trial := buf[:len(st.q)], buf[len(st.q):2*len(st.q)], buf[2*len(st.q):3*len(st.q)], buf[3*len(st.q):]
 	_ = d
 	cur := cost(st.q)
 	for it := 0; it < 40; it++ {
@@ -680,7 +717,7 @@ func (s *Solver) lowestFeasibleHeadBound(cnt []int, Q, hr, bound float64) float6
 	if hc <= hr {
 		return 0
 	}
-	spans := make([]span, len(cnt))
+	spans := s.scratch(&s.scanSpans, len(cnt))
 	side := func(h float64) side { _, _, sd := s.sides(cnt, Q, h, spans); return sd }
 	prev := hr
 	_, _, prevSide := s.sidesAt(cnt, Q, hr, 0, spans)
