@@ -152,7 +152,12 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 		}
 	}
 	if v := d.value(f, "time_zone"); v != nil {
-		t.TimeZone, _ = d.text(v, join(path, "time_zone"))
+		if zone, ok := d.text(v, join(path, "time_zone")); ok {
+			if _, err := time.LoadLocation(zone); err != nil || zone == "" {
+				d.errorf(v, join(path, "time_zone"), "%q is not a known IANA time zone (e.g. America/Chicago, Europe/Berlin)", zone)
+			}
+			t.TimeZone = zone
+		}
 	}
 	if v := d.value(f, "interval"); v != nil {
 		if m, ok := d.minutes(v, join(path, "interval")); ok {
