@@ -31,7 +31,7 @@ func TestOutputUnderAFile(t *testing.T) {
 	if r.code != cmd.ExitFailure {
 		t.Fatalf("%s", r.describe(args))
 	}
-	if !strings.Contains(r.err, out) || !strings.Contains(r.err, "not a directory") {
+	if !strings.Contains(r.err, out) || !strings.Contains(r.err, "is a file, not a folder") {
 		t.Errorf("stderr does not say the folder of %s is not a folder:\n%s", out, r.err)
 	}
 	if got, err := os.ReadFile(plain); err != nil || string(got) != "a file, not a folder\n" {

@@ -23,6 +23,10 @@ func checkOutputPath(out, input string, force bool) error {
 	if _, err := os.Stat(out); err == nil && !force {
 		return badInputf("-o %s: the file exists; use --force to replace it", out)
 	} else if err != nil && !errors.Is(err, os.ErrNotExist) {
+		dir := filepath.Dir(out)
+		if st, derr := os.Stat(dir); derr == nil && !st.IsDir() {
+			return fmt.Errorf("-o %s: %s is a file, not a folder: the workbook cannot be written there", out, dir)
+		}
 		return fmt.Errorf("-o %s: %w", out, err)
 	}
 	return nil

@@ -33,7 +33,7 @@ func writeWorkbook(path, input string, force bool, in *planInput, pl *optimize.P
 	case errors.Is(err, workbook.ErrSameAsInput):
 		return badInputf("-o %s: the output would overwrite an input file", path)
 	case err != nil:
-		return fmt.Errorf("writing the workbook %s: %w (any earlier file there is unchanged)", path, err)
+		return fmt.Errorf("writing the workbook %s: %w", path, err)
 	}
 	return nil
 }
