@@ -2,6 +2,7 @@ package cmd
 
 import (
 	"fmt"
+	"io"
 	"math"
 	"time"
 
@@ -96,6 +97,7 @@ func setpointsRun(opts *SetpointsOptions) error {
 			fmt.Fprintln(out, "default: "+d)
 		}
 	}
+	writeOrder(out, p, sp)
 	heading(out, "Energy price of the sequence over the profile")
 	writeProfileLine(out, in)
 	t := newTable(out)
@@ -153,4 +155,46 @@ func derivedStrategy(p *plant.Plant) []optimize.Keyed {
 		return nil
 	}
 	return []optimize.Keyed{{Key: optimize.KeyDerived, Strategy: optimize.NewSequenced("derived setpoints", sp, optimize.FlowBasis)}}
+}
+
+// writeOrder shows, for each change, the combinations with the new count of
+// units at the change's flow and their input: why that unit comes on (or
+// goes off) rather than another.
+func writeOrder(out io.Writer, p *plant.Plant, sp *optimize.Setpoints) {
+	mixed := len(p.Models) > 1
+	if !mixed {
+		return
+	}
+	heading(out, "Which unit comes on and goes off (input at the change, best first)")
+	u := p.Units
+	for _, t := range sp.Transitions {
+		fmt.Fprintf(out, "%d → %d at %s:", t.From, t.To, u.FormatFlow(t.Up.Flow))
+		writeOptions(out, p, t.UpOptions)
+		fmt.Fprintf(out, "%d → %d at %s:", t.To, t.From, u.FormatFlow(t.Down.Flow))
+		writeOptions(out, p, t.DownOptions)
+	}
+}
+
+func writeOptions(out io.Writer, p *plant.Plant, opts []optimize.Option) {
+	var best float64
+	for _, o := range opts {
+		if o.Served {
+			best = float64(o.Power)
+			break
+		}
+	}
+	for k, o := range opts {
+		if k > 0 {
+			fmt.Fprint(out, ";")
+		}
+		switch {
+		case !o.Served:
+			fmt.Fprintf(out, " %s cannot serve it", combo(p, o.Counts))
+		case float64(o.Power) == best:
+			fmt.Fprintf(out, " %s %.2f kW (chosen)", combo(p, o.Counts), float64(o.Power)/1000)
+		default:
+			fmt.Fprintf(out, " %s %.2f kW (+%.1f %%)", combo(p, o.Counts), float64(o.Power)/1000, 100*(float64(o.Power)/best-1))
+		}
+	}
+	fmt.Fprintln(out)
 }
