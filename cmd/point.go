@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -143,10 +144,10 @@ func writePoint(out io.Writer, p *plant.Plant, r optimize.Result, byCount []opti
 				continue
 			}
 			mark := ""
-			if sameCounts(c.Counts, r.Counts) {
+			if slices.Equal(c.Counts, r.Counts) {
 				mark = " ← best"
 			}
-			t.row(fmt.Sprint(n+1), combo(p, c.Counts), speedList(c), headOut(u, c.HeaderHead), kw(c.Power),
+			t.row(fmt.Sprint(n+1), optimize.DescribeCounts(p, c.Counts), speedList(c), headOut(u, c.HeaderHead), kw(c.Power),
 				fmt.Sprintf("%+.1f", 100*(float64(c.Power/r.Power)-1)), "served"+mark)
 		}
 		t.flush()
@@ -215,29 +216,6 @@ func shortReason(r optimize.Result) string {
 		return "breaks a unit limit"
 	}
 	return string(r.Limit)
-}
-
-func sameCounts(a, b []int) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return false
-		}
-	}
-	return true
-}
-
-// combo names a combination of running units, e.g. "2 × big + 1 × small".
-func combo(p *plant.Plant, counts []int) string {
-	var parts []string
-	for i, c := range counts {
-		if c > 0 {
-			parts = append(parts, fmt.Sprintf("%d × %s", c, p.Models[i].Name))
-		}
-	}
-	return strings.Join(parts, " + ")
 }
 
 func speedList(r optimize.Result) string {

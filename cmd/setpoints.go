@@ -189,11 +189,11 @@ func writeOptions(out io.Writer, p *plant.Plant, opts []optimize.Option) {
 		}
 		switch {
 		case !o.Served:
-			fmt.Fprintf(out, " %s cannot serve it", combo(p, o.Counts))
+			fmt.Fprintf(out, " %s cannot serve it", optimize.DescribeCounts(p, o.Counts))
 		case float64(o.Power) == best:
-			fmt.Fprintf(out, " %s %.2f kW (chosen)", combo(p, o.Counts), float64(o.Power)/1000)
+			fmt.Fprintf(out, " %s %.2f kW (chosen)", optimize.DescribeCounts(p, o.Counts), float64(o.Power)/1000)
 		default:
-			fmt.Fprintf(out, " %s %.2f kW (+%.1f %%)", combo(p, o.Counts), float64(o.Power)/1000, 100*(float64(o.Power)/best-1))
+			fmt.Fprintf(out, " %s %.2f kW (+%.1f %%)", optimize.DescribeCounts(p, o.Counts), float64(o.Power)/1000, 100*(float64(o.Power)/best-1))
 		}
 	}
 	fmt.Fprintln(out)

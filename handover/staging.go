@@ -26,7 +26,7 @@ func Staging(p *plant.Plant) workbook.Staging {
 		return 100 * v
 	}
 	for _, t := range sp.Transitions {
-		st.Rows = append(st.Rows, workbook.StagingRow{From: sum(t.Lower), To: sum(t.Upper), Units: startWords(p, t.Start),
+		st.Rows = append(st.Rows, workbook.StagingRow{From: sum(t.Lower), To: sum(t.Upper), Units: optimize.StartStop(p, t.Start, t.Stop),
 			UpSpeed: speed(t.Up.Speed), UpFlow: u.FlowOut(t.Up.Flow), UpDelay: t.Up.Delay.Minutes(),
 			DownSpeed: speed(t.Down.Speed), DownFlow: u.FlowOut(t.Down.Flow), DownDelay: t.Down.Delay.Minutes(),
 			Note: fmt.Sprintf("up set by %s; down set by %s", t.Up.Limit, t.Down.Limit)})
@@ -54,15 +54,4 @@ func sum(v []int) int {
 		n += x
 	}
 	return n
-}
-
-// startWords writes the units a stage change starts, e.g. "+1 × CHWP".
-func startWords(p *plant.Plant, start []int) string {
-	var parts []string
-	for i, n := range start {
-		if n > 0 {
-			parts = append(parts, fmt.Sprintf("+%d × %s", n, p.Models[i].Name))
-		}
-	}
-	return strings.Join(parts, " ")
 }

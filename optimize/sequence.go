@@ -345,19 +345,19 @@ func (sp *Setpoints) WriteTable(w io.Writer) error {
 	tw := tabwriter.NewWriter(w, 2, 8, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintf(tw, "stage\trunning units\tfrom (%s)\tto (%s)\tspeed (%% rated)\tlimit at low end\t\n", fu, fu)
 	for _, st := range sp.Stages {
-		fmt.Fprintf(tw, "%d\t%s\t%.1f\t%.1f\t%s\t%s\t\n", st.Number, describeCounts(sp.Plant, st.Counts),
+		fmt.Fprintf(tw, "%d\t%s\t%.1f\t%.1f\t%s\t%s\t\n", st.Number, DescribeCounts(sp.Plant, st.Counts),
 			u.FlowOut(st.Low), u.FlowOut(st.High), speedRange(st.LowSpeed, st.HighSpeed), orDash(string(st.LowLimit)))
 	}
 	fmt.Fprintln(tw)
 	fmt.Fprintf(tw, "change\tstart / stop\tflow (%s)\tper unit (%s)\tdesign (%%)\tspeed before (%%)\tspeed after (%%)\tdelay (min)\tset by\t\n", fu, fu)
 	for _, t := range sp.Transitions {
-		fmt.Fprintf(tw, "%d → %d up\t%s\t%.1f\t%.1f\t%.1f\t%s\t%s\t%.0f\t%s\t\n", t.From, t.To, startStop(sp.Plant, t.Start, t.Stop),
+		fmt.Fprintf(tw, "%d → %d up\t%s\t%.1f\t%.1f\t%.1f\t%s\t%s\t%.0f\t%s\t\n", t.From, t.To, StartStop(sp.Plant, t.Start, t.Stop),
 			u.FlowOut(t.Up.Flow), u.FlowOut(t.Up.PerUnit), 100*t.Up.Design, pct(t.Up.Speed), pct(t.Up.After), t.Up.Delay.Minutes(), t.Up.Limit)
 		sl := string(t.Down.Limit)
 		if t.Down.SpeedLimit != t.Down.Limit {
 			sl += "; speed: " + string(t.Down.SpeedLimit)
 		}
-		fmt.Fprintf(tw, "%d → %d down\t%s\t%.1f\t%.1f\t%.1f\t%s\t%s\t%.0f\t%s\t\n", t.To, t.From, startStop(sp.Plant, t.Stop, t.Start),
+		fmt.Fprintf(tw, "%d → %d down\t%s\t%.1f\t%.1f\t%.1f\t%s\t%s\t%.0f\t%s\t\n", t.To, t.From, StartStop(sp.Plant, t.Stop, t.Start),
 			u.FlowOut(t.Down.Flow), u.FlowOut(t.Down.PerUnit), 100*t.Down.Design, pct(t.Down.Speed), pct(t.Down.SpeedAfter), t.Down.Delay.Minutes(), sl)
 	}
 	return tw.Flush()
@@ -389,8 +389,8 @@ func orDash(s string) string {
 	return s
 }
 
-// startStop writes "+1 × big −1 × small".
-func startStop(p *plant.Plant, start, stop []int) string {
+// StartStop writes "+1 × big −1 × small".
+func StartStop(p *plant.Plant, start, stop []int) string {
 	var parts []string
 	for i, n := range start {
 		if n > 0 {
@@ -433,7 +433,7 @@ func (sp *Setpoints) SequenceOfOperation() string {
 		p.Name, strings.Join(installed, ", "), speedNote)
 	var stages []string
 	for _, st := range sp.Stages {
-		stages = append(stages, fmt.Sprintf("stage %d runs %s", st.Number, describeCounts(p, st.Counts)))
+		stages = append(stages, fmt.Sprintf("stage %d runs %s", st.Number, DescribeCounts(p, st.Counts)))
 	}
 	para("Stages: %s.", strings.Join(stages, "; "))
 	for _, t := range sp.Transitions {

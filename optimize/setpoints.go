@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"time"
 
 	"wattstage/curves"
@@ -343,7 +344,7 @@ func (d *deriver) scan(grid []curves.Flow) []segment {
 				d.fmtQ(grid[gapFrom]), d.fmtQ(grid[i-1]), d.s.Solve(grid[gapFrom]).Reason)
 			gapFrom = -1
 		}
-		if n := len(segs); n > 0 && sameCounts(segs[n-1].counts, r.Counts) {
+		if n := len(segs); n > 0 && slices.Equal(segs[n-1].counts, r.Counts) {
 			segs[n-1].i1 = i
 			continue
 		}
@@ -353,7 +354,7 @@ func (d *deriver) scan(grid []curves.Flow) []segment {
 		merged = false
 		for i := 0; i < len(segs) && !merged; i++ {
 			for j := len(segs) - 1; j > i+1; j-- {
-				if sameCounts(segs[i].counts, segs[j].counts) {
+				if slices.Equal(segs[i].counts, segs[j].counts) {
 					d.warnf("the lowest-power staging is not monotone in flow: %s is best again from %s; the sequence keeps it from %s to %s",
 						d.describe(segs[i].counts), d.fmtQ(grid[segs[j].i0]), d.fmtQ(grid[segs[i].i0]), d.fmtQ(grid[segs[j].i1]))
 					segs[i].i1 = segs[j].i1
@@ -752,10 +753,11 @@ func (d *deriver) warnf(format string, a ...any) { d.warn = append(d.warn, fmt.S
 
 func (d *deriver) fmtQ(q curves.Flow) string { return d.p.Units.FormatFlow(q) }
 
-func (d *deriver) describe(cnt []int) string { return describeCounts(d.p, cnt) }
+func (d *deriver) describe(cnt []int) string { return DescribeCounts(d.p, cnt) }
 
 // describeCounts writes a combination as "2 × CHWP-A + 1 × CHWP-B".
-func describeCounts(p *plant.Plant, cnt []int) string {
+// DescribeCounts names a combination of running units, e.g. "2 × L + 1 × S".
+func DescribeCounts(p *plant.Plant, cnt []int) string {
 	s := ""
 	for i, n := range cnt {
 		if n == 0 {
@@ -770,18 +772,6 @@ func describeCounts(p *plant.Plant, cnt []int) string {
 		return "no unit"
 	}
 	return s
-}
-
-func sameCounts(a, b []int) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return false
-		}
-	}
-	return true
 }
 
 func sum(v []int) int {

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -275,7 +276,7 @@ func TestSmallUnitLeadsWhenItShould(t *testing.T) {
 				if small.kw < big.kw {
 					want = []int{0, 1}
 				}
-				if !sameCounts(r.Counts, want) {
+				if !slices.Equal(r.Counts, want) {
 					t.Errorf("%.0f gpm: the sequence runs %v, want %v (small %.3f kW, big %.3f kW alone)", gpm, r.Counts, want, small.kw, big.kw)
 				}
 				checked++
@@ -287,7 +288,7 @@ func TestSmallUnitLeadsWhenItShould(t *testing.T) {
 			if c.wantSmall {
 				want = []int{0, 1}
 			}
-			if got := sp.Stages[0].Counts; !sameCounts(got, want) {
+			if got := sp.Stages[0].Counts; !slices.Equal(got, want) {
 				t.Errorf("stage 1 runs %v, want %v", got, want)
 			}
 			// The reasoning: at each power crossover the upper stage is the
