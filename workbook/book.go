@@ -424,6 +424,12 @@ func (b *book) pageSetup(s *sheet, landscape bool, lastCol, lastRow int) {
 
 // pageSetupWide is pageSetup scaled to the given number of pages across.
 func (b *book) pageSetupWide(s *sheet, landscape bool, lastCol, lastRow, pagesWide int) {
+	b.pageSetupFit(s, landscape, lastCol, lastRow, pagesWide, 0)
+}
+
+// pageSetupFit is pageSetup scaled to pagesWide pages across and pagesTall
+// down (0 = as many as it takes).
+func (b *book) pageSetupFit(s *sheet, landscape bool, lastCol, lastRow, pagesWide, pagesTall int) {
 	if b.err != nil {
 		return
 	}
@@ -431,12 +437,12 @@ func (b *book) pageSetupWide(s *sheet, landscape bool, lastCol, lastRow, pagesWi
 	if landscape {
 		orient = "landscape"
 	}
-	paper, any := 9, 0 // SpreadsheetML paper sizes: 1 US Letter, 9 A4
+	paper, tall := 9, pagesTall // SpreadsheetML paper sizes: 1 US Letter, 9 A4
 	if b.r.Units.System == "US" {
 		paper = 1
 	}
 	b.fail(b.f.SetPageLayout(s.name, &excelize.PageLayoutOptions{
-		Size: &paper, Orientation: &orient, FitToWidth: &pagesWide, FitToHeight: &any,
+		Size: &paper, Orientation: &orient, FitToWidth: &pagesWide, FitToHeight: &tall,
 	}))
 	fit := true
 	b.fail(b.f.SetSheetProps(s.name, &excelize.SheetPropsOptions{FitToPage: &fit}))

@@ -132,7 +132,8 @@ func (b *book) placeCharts(s *sheet, charts []Chart, refs [][]seriesRefs) {
 	slot++
 	bands := (slot + chartsPerRow - 1) / chartsPerRow
 	lastRow := chartTopRow + bands*chartRows
-	b.pageSetup(s, true, chartsPerRow*chartCols, lastRow)
+	// The charts belong on one page: a chart cut across two is unreadable.
+	b.pageSetupFit(s, true, chartsPerRow*chartCols, lastRow, 1, 1)
 	s.finish()
 }
 
