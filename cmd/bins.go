@@ -115,6 +115,9 @@ func binsRun(opts *BinsOptions) error {
 	fmt.Fprintf(out, "Coverage: %.0f h of a %.0f h span (%.1f %%)\n", tr.Hours, tr.Span, 100*tr.Coverage())
 	fmt.Fprintf(out, "Rows: %s\n", strings.TrimSpace(tr.Report.Summary()))
 	for _, w := range tr.Warnings {
+		if strings.Contains(w, tr.Report.Summary()) {
+			continue // the Rows line above says it
+		}
 		fmt.Fprintln(out, "Note: "+w)
 	}
 	heading(out, fmt.Sprintf("Flow histogram (bins of %.4g %s)", float64(b.Width)/per, unit))
