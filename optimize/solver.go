@@ -684,26 +684,11 @@ func (s *Solver) mayRise(cnt []int, Q, hr float64) bool {
 	return sum >= Q*(1-1e-9)
 }
 
-// lowestFeasibleHead finds the lowest header head above the required one at
-// which a combo serves the flow: a scan up to the combo's head limit, then
-// bisection at the first step that fits (or, for fixed-speed units alone,
-// whose feasible head is a single point, at the step where their flow
-// turns from too much to too little).
-func (s *Solver) lowestFeasibleHead(cnt []int, Q, hr float64) *state {
-	h := s.lowestFeasibleHeadValue(cnt, Q, hr)
-	if h <= 0 {
-		return nil
-	}
-	st, _ := s.atHead(cnt, Q, h)
-	return st
-}
-
-// lowestFeasibleHeadValue is the head lowestFeasibleHead solves at, or 0.
-func (s *Solver) lowestFeasibleHeadValue(cnt []int, Q, hr float64) float64 {
-	return s.lowestFeasibleHeadBound(cnt, Q, hr, math.Inf(1))
-}
-
-// lowestFeasibleHeadBound is lowestFeasibleHeadValue that gives up (0) as
+// lowestFeasibleHeadBound returns the lowest header head above the
+// required one at which a combo serves the flow, or 0: a scan over the
+// solve's head grid, then bisection at the first step that fits (or, for
+// fixed-speed units alone, whose feasible head is a single point, at the
+// step where their flow turns from too much to too little). It gives up as
 // soon as the head reached makes ρ g Q H / η_BEP, a lower bound on the
 // combo's input, exceed bound.
 func (s *Solver) lowestFeasibleHeadBound(cnt []int, Q, hr, bound float64) float64 {
