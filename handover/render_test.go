@@ -1,8 +1,6 @@
 package handover_test
 
 import (
-	"os"
-	"os/exec"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -22,39 +20,17 @@ import (
 //
 // Set WORKBOOK_RENDER_DIR to keep the PDF and PNGs there.
 func TestRenderTrendExample(t *testing.T) {
-	soffice := officecheck.Soffice(t)
-	pdftoppm := officecheck.Tool(t, "pdftoppm", "poppler-utils")
-	pdftotext := officecheck.Tool(t, "pdftotext", "poppler-utils")
-	out := os.Getenv("WORKBOOK_RENDER_DIR")
-	if out == "" {
-		out = t.TempDir()
-	} else if err := os.MkdirAll(out, 0o755); err != nil {
-		t.Fatal(err)
-	}
 	ex := loadExample(t, "chilled-water-trend.yaml")
 	r := ex.report
-	file := filepath.Join(out, "chilled-water-trend.xlsx")
+	file := filepath.Join(officecheck.RenderDir(t), "chilled-water-trend.xlsx")
 	if err := workbook.Write(file, r, workbook.Options{Force: true, InputPaths: []string{ex.path}}); err != nil {
 		t.Fatal(err)
 	}
-	pdf := filepath.Join(out, "chilled-water-trend.pdf")
-	if err := os.Rename(officecheck.Convert(t, soffice, officecheck.Profile(t, officecheck.RecalcAlways), file, "pdf"), pdf); err != nil {
-		t.Fatal(err)
-	}
-
+	// Reading order, not layout: a wrapped chart title stays whole.
+	rd := officecheck.Render(t, file, "chilled-water-trend", false)
 	var pages []string // each page's text, whitespace folded to single spaces
-	for i := 1; ; i++ {
-		// Reading order, not layout: a wrapped chart title stays whole.
-		txt, err := exec.Command(pdftotext, "-f", strconv.Itoa(i), "-l", strconv.Itoa(i), pdf, "-").Output()
-		if err != nil {
-			break // past the last page
-		}
-		pages = append(pages, strings.Join(strings.Fields(string(txt)), " "))
-	}
-	for i, p := range pages {
-		if strings.Contains(p, "###") {
-			t.Errorf("page %d shows ### (a number wider than its column): %.80q", i+1, p)
-		}
+	for _, p := range rd.Pages {
+		pages = append(pages, strings.Join(strings.Fields(p), " "))
 	}
 	titles := []string{"Pump group plan: ", "Economics: ", "Staging setpoints: ", "Curves: ", "Load points: "}
 	page := func(title string) int {
@@ -127,14 +103,7 @@ func TestRenderTrendExample(t *testing.T) {
 		name  string
 		index int
 	}{{"summary", idx["Pump group plan: "]}, {"staging", idx["Staging setpoints: "]}, {"curves", idx["Curves: "]}} {
-		n := strconv.Itoa(pg.index + 1)
-		prefix := filepath.Join(out, "chilled-water-trend-"+pg.name)
-		if b, err := exec.Command(pdftoppm, "-r", "110", "-png", "-singlefile", "-f", n, "-l", n, pdf, prefix).CombinedOutput(); err != nil {
-			t.Fatalf("pdftoppm: %v\n%s", err, b)
-		}
-		if fi, err := os.Stat(prefix + ".png"); err != nil || fi.Size() < 10000 {
-			t.Errorf("%s.png missing or nearly empty", prefix)
-		}
+		rd.PNG(t, pg.index, "chilled-water-trend-"+pg.name)
 	}
-	t.Logf("rendered %d pages to %s", len(pages), out)
+	t.Logf("rendered %d pages to %s", len(pages), rd.Dir)
 }

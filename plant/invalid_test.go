@@ -4,10 +4,10 @@ import (
 	"bytes"
 	"errors"
 	"flag"
-	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+	"wattstage/internal/golden"
 )
 
 var update = flag.Bool("update", false, "rewrite the .golden files of the bad-input corpus")
@@ -65,20 +65,7 @@ func TestInvalid(t *testing.T) {
 			}
 			checkErrorList(t, name, err)
 			got := err.Error() + "\n"
-			golden := strings.TrimSuffix(name, ".yaml") + ".golden"
-			if *update {
-				if err := os.WriteFile(golden, []byte(got), 0o644); err != nil {
-					t.Fatal(err)
-				}
-				return
-			}
-			want, rerr := os.ReadFile(golden)
-			if rerr != nil {
-				t.Fatalf("no golden file (run with -update): %v", rerr)
-			}
-			if got != string(want) {
-				t.Errorf("error text differs from %s\n--- got\n%s--- want\n%s", golden, got, want)
-			}
+			golden.Check(t, strings.TrimSuffix(name, ".yaml")+".golden", got, *update, "go test ./plant -run TestInvalid -update")
 		})
 	}
 }

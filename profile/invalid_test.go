@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"wattstage/internal/golden"
 )
 
 var update = flag.Bool("update", false, "rewrite the .golden files of the bad-trend corpus")
@@ -61,20 +62,7 @@ func TestInvalidTrends(t *testing.T) {
 				t.Errorf("error does not name the file: %v", err)
 			}
 			got := err.Error() + "\n"
-			golden := strings.TrimSuffix(path, ".csv") + ".golden"
-			if *update {
-				if err := os.WriteFile(golden, []byte(got), 0o644); err != nil {
-					t.Fatal(err)
-				}
-				return
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("%v (run go test ./profile -run TestInvalidTrends -update)", err)
-			}
-			if got != string(want) {
-				t.Errorf("message\n got %q\nwant %q", got, want)
-			}
+			golden.Check(t, strings.TrimSuffix(path, ".csv")+".golden", got, *update, "go test ./profile -run TestInvalidTrends -update")
 		})
 	}
 }
