@@ -52,6 +52,10 @@ type Bill struct {
 	Periods    []PeriodUse // per time-of-use period, then "outside periods"; nil for a flat tariff
 	Months     []Month     // per calendar month, for a time-stamped series
 	Warnings   []string    // estimates the bill rests on
+	// SampleCost is the energy cost of each sample, in the series' order
+	// (currency); it adds up to EnergyCost. Untimed bins are priced at the
+	// same week-share price as the whole bill.
+	SampleCost []float64 `json:"-"`
 }
 
 // Cost prices an energy series under a tariff.
@@ -93,7 +97,7 @@ func Cost(t Tariff, series []Sample) (*Bill, error) {
 	if timed != 0 && timed != len(series) {
 		return nil, fmt.Errorf("%w: %d of %d samples are time-stamped; give all or none a start", ErrSeries, timed, len(series))
 	}
-	b := &Bill{Timed: timed > 0 && timed == len(series)}
+	b := &Bill{Timed: timed > 0 && timed == len(series), SampleCost: make([]float64, len(series))}
 	if len(t.Periods) > 0 {
 		b.Periods = make([]PeriodUse, len(t.Periods)+1)
 		for i := range t.Periods {
@@ -123,7 +127,7 @@ func (b *Bill) periodSlot(i int) *PeriodUse {
 func (b *Bill) costTimed(t *Tariff, series []Sample) {
 	months := map[[2]int]int{} // (year, month) → index in b.Months
 	longest := 0.0
-	for _, s := range series {
+	for si, s := range series {
 		kw := float64(s.Power) / curves.KW
 		longest = max(longest, s.Hours)
 		if s.Hours > 0 {
@@ -144,6 +148,7 @@ func (b *Bill) costTimed(t *Tariff, series []Sample) {
 			e := kw * h
 			b.Energy += e
 			b.EnergyCost += e * price
+			b.SampleCost[si] += e * price
 			if b.Periods != nil {
 				u := b.periodSlot(pi)
 				u.Hours += h
@@ -233,6 +238,9 @@ func (b *Bill) costUntimed(t *Tariff, series []Sample) {
 		b.Warnings = append(b.Warnings, "time-of-use prices applied to untimed bins by each period's share of the week's hours (load assumed independent of the time of day)")
 	}
 	b.EnergyCost = b.Energy * price
+	for i, s := range series {
+		b.SampleCost[i] = float64(s.Power) / curves.KW * s.Hours * price
+	}
 	if t.DemandCharge > 0 {
 		b.DemandCost = 12 * b.PeakKW * t.DemandCharge
 		b.Warnings = append(b.Warnings, "demand charge estimated from untimed bins: the highest bin power applied to all 12 months")
