@@ -9,6 +9,7 @@ import (
 	"unicode/utf8"
 
 	"wattstage/curves"
+	"wattstage/study"
 )
 
 // table writes aligned columns: the first column (names) left-aligned, the
@@ -68,18 +69,30 @@ func writeJSON(out io.Writer, v any) error {
 	return enc.Encode(v)
 }
 
-// cautions are printed wherever results could be acted on (DOMAIN §9).
-var cautions = []string{
-	"Results are planning estimates from datasheet curves and default motor/drive losses.",
-	"Confirm minimum flow, minimum speed, NPSH (cavitation), motor cooling at low speed and",
-	"resonance with the pump, motor and drive manufacturers, and the chiller/boiler minimum",
-	"flow with its manufacturer, before changing a sequence. Sequences and retrofits are the",
-	"responsibility of a licensed engineer under local codes.",
-}
-
+// writeCautions prints the study's one copy of the cautions wherever
+// results could be acted on, each wrapped to 90 columns.
 func writeCautions(out io.Writer) {
 	heading(out, "Cautions")
-	for _, c := range cautions {
-		fmt.Fprintln(out, c)
+	for _, c := range study.Cautions {
+		fmt.Fprintln(out, wrapText(c, 90, "- ", "  "))
 	}
+}
+
+// wrapText wraps s at width columns, the first line after first, the rest
+// after rest.
+func wrapText(s string, width int, first, rest string) string {
+	var b strings.Builder
+	line := first
+	for _, w := range strings.Fields(s) {
+		if utf8.RuneCountInString(line)+1+utf8.RuneCountInString(w) > width && strings.TrimSpace(line) != "" && line != first {
+			b.WriteString(strings.TrimRight(line, " ") + "\n")
+			line = rest
+		}
+		if line != first && line != rest {
+			line += " "
+		}
+		line += w
+	}
+	b.WriteString(line)
+	return b.String()
 }

@@ -1,19 +1,16 @@
 package cmd
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"math"
-	"path/filepath"
 	"strings"
 
 	"github.com/spf13/cobra"
 
 	"wattstage/curves"
-	"wattstage/econ"
-	"wattstage/optimize"
-	"wattstage/plant"
-	"wattstage/profile"
+	"wattstage/study"
 )
 
 // PlanOptions are the inputs of `wattstage plan`.
@@ -25,6 +22,7 @@ type PlanOptions struct {
 	JSON      bool
 	Baseline  string
 	BinWidth  string // trend: solve binned instead of point by point, bin width in the plant's flow unit
+	Detail    bool   // with JSON: every step of every strategy, as JSON Lines after the document
 }
 
 // NewCmdPlan builds `wattstage plan`.
@@ -56,100 +54,65 @@ With -o the same goes into an Excel workbook to hand over.`,
 	f := c.Flags()
 	f.StringVarP(&opts.Output, "output", "o", "", "write the workbook to this .xlsx file")
 	f.BoolVar(&opts.Force, "force", false, "replace an existing workbook")
-	f.BoolVar(&opts.JSON, "json", false, "write the full result as JSON")
+	f.BoolVar(&opts.JSON, "json", false, "write the result as JSON (docs/plan-json.md)")
+	f.BoolVar(&opts.Detail, "detail", false, "with --json: add every step of every strategy, as JSON Lines after the document")
 	f.StringVar(&opts.Baseline, "baseline", "", "strategy to count savings against: current, throttled, bypass, common, partial, derived (default: current when the plant file gives its sequence, else throttled)")
 	f.StringVar(&opts.BinWidth, "bin-width", "", "with a trend: bin the flows by this width (plant flow unit) instead of solving every interval")
 	return c
 }
 
-// planInput is a loaded plant with its steps.
-type planInput struct {
-	plant  *plant.Plant
-	steps  []optimize.Step
-	trend  *profile.Trend
-	binned *profile.Binned
-}
-
-func loadPlanInput(path, binWidth string) (*planInput, error) {
+// planStudy loads the plant, reads its profile and runs the study.
+func planStudy(path, binWidth, baseline string, progress func(string, int, int)) (*study.Result, error) {
 	p, err := loadPlant(path)
 	if err != nil {
 		return nil, err
 	}
-	in := &planInput{plant: p}
-	if p.Profile.Trend == nil {
-		if binWidth != "" {
-			return nil, badInputf("--bin-width: the plant's profile is already binned")
+	var w curves.Flow
+	if binWidth != "" {
+		if w, err = parseFlow(binWidth, p); err != nil || !(w > 0) {
+			return nil, badInputf("--bin-width %q: not a positive flow in %s", binWidth, p.Units.FlowUnit())
 		}
-		in.steps = optimize.StepsFromBins(p.Profile.Bins)
-		return in, nil
 	}
-	spec := *p.Profile.Trend
-	if !filepath.IsAbs(spec.Path) {
-		spec.Path = filepath.Join(filepath.Dir(p.Source), spec.Path)
+	in, err := study.Prepare(p, w)
+	if errors.Is(err, study.ErrBinWidth) {
+		return nil, badInputf("--bin-width %s: %v", binWidth, err)
 	}
-	tr, err := profile.ReadTrendFile(spec, spec.Path)
 	if err != nil {
 		return nil, badInput(err)
 	}
-	in.trend = tr
-	if binWidth == "" {
-		in.steps = optimize.StepsFromTrend(tr.Points)
-		return in, nil
-	}
-	w, err := parseFlow(binWidth, p)
-	if err != nil || w <= 0 {
-		return nil, badInputf("--bin-width %q: not a positive flow in %s", binWidth, p.Units.FlowUnit())
-	}
-	b, err := tr.Bin(w)
-	if err != nil {
+	res, err := study.Run(in, study.Options{Baseline: baseline, Progress: progress})
+	if errors.Is(err, study.ErrBaseline) {
 		return nil, badInput(err)
 	}
-	in.binned = b
-	in.steps = optimize.StepsFromBinned(b)
-	return in, nil
+	return res, err
 }
 
 func planRun(opts *PlanOptions) error {
 	if err := checkOutputPath(opts.Output, opts.PlantPath, opts.Force); err != nil {
 		return err
 	}
-	in, err := loadPlanInput(opts.PlantPath, opts.BinWidth)
-	if err != nil {
-		return err
-	}
-	po := optimize.PlanOptions{Baseline: opts.Baseline, Extra: derivedStrategy(in.plant)}
+	var progress func(string, int, int)
 	if opts.IO.Terminal {
-		po.Progress = func(label string, i, n int) {
-			fmt.Fprintf(opts.IO.Err, "\r[%d/%d] %-40s", i+1, n, label)
+		progress = func(label string, i, n int) {
+			fmt.Fprintf(opts.IO.Err, "\r[%d/%d] %-50s", i+1, n, label)
 			if i == n-1 {
-				fmt.Fprint(opts.IO.Err, "\r"+strings.Repeat(" ", 50)+"\r")
+				fmt.Fprint(opts.IO.Err, "\r"+strings.Repeat(" ", 60)+"\r")
 			}
 		}
 	}
-	if in.trend != nil && in.binned == nil && in.plant.DesignFlow > 0 {
-		// Also solve the trend binned at 5 % of design flow, to show the
-		// binning error against the point-by-point total.
-		if b, err := in.trend.Bin(in.plant.DesignFlow / 20); err == nil {
-			in.binned = b
-			po.Binned = optimize.StepsFromBinned(b)
-		}
-	}
-	pl, err := optimize.NewPlan(in.plant, in.steps, po)
+	res, err := planStudy(opts.PlantPath, opts.BinWidth, opts.Baseline, progress)
 	if err != nil {
-		if strings.Contains(err.Error(), "baseline") {
-			return badInput(err)
-		}
 		return err
 	}
 	if opts.JSON {
-		if err := writeJSON(opts.IO.Out, planJSON(in, pl)); err != nil {
+		if err := res.WriteJSON(opts.IO.Out, opts.Detail); err != nil {
 			return err
 		}
 	} else {
-		writePlan(opts.IO.Out, in, pl)
+		writePlan(opts.IO.Out, res)
 	}
 	if opts.Output != "" {
-		if err := writeWorkbook(opts.Output, opts.PlantPath, opts.Force, in, pl); err != nil {
+		if err := writeWorkbook(opts.Output, opts.PlantPath, opts.Force, res); err != nil {
 			return err
 		}
 		fmt.Fprintf(opts.IO.Err, "wrote %s\n", opts.Output)
@@ -157,78 +120,123 @@ func planRun(opts *PlanOptions) error {
 	return nil
 }
 
-func writePlan(out io.Writer, in *planInput, pl *optimize.Plan) {
-	p := in.plant
-	u := p.Units
-	cur := p.Tariff.Currency
+func writePlan(out io.Writer, r *study.Result) {
+	p := r.Plant
+	cur := r.Currency()
+	pd := r.Period
 	fmt.Fprintf(out, "Plant: %s\n", p.Name)
-	writeProfileLine(out, in)
-	base := pl.Outcomes[pl.Baseline]
-	heading(out, fmt.Sprintf("Strategies over the profile (baseline: %s)", base.Run.Name))
+	writeProfileLine(out, &study.Input{Plant: r.Plant, Trend: r.Trend, Binned: r.Binned, Steps: r.Steps})
+	showPeriod := math.Abs(pd.Factor-1) > 1e-9
+	base := r.BaselineStrategy()
+	heading(out, fmt.Sprintf("Strategies, a year (baseline: %s)", base.Name))
 	t := newTable(out)
-	t.row("strategy", "energy (kWh/yr)", "peak (kW)", "cost ("+cur+"/yr)", "emissions (t CO₂e/yr)", "unmet (h)", "stage changes")
-	for _, o := range pl.Outcomes {
+	head := []string{"strategy"}
+	if showPeriod {
+		head = append(head, "in period (kWh)")
+	}
+	head = append(head, "energy (kWh/yr)", "peak (kW)", "cost ("+cur+"/yr)", "emissions (t CO₂e/yr)", "unmet (h)", "stage changes")
+	t.row(head...)
+	for _, s := range r.Strategies {
 		changes := "—"
-		if len(in.steps) > 0 && in.steps[0].Timed() {
-			changes = fmt.Sprint(o.Energy.Changes)
+		if pd.Timed {
+			changes = fmt.Sprint(s.Energy.Changes)
 		}
-		t.row(o.Run.Name, num(o.Energy.KWh, 0), num(o.Energy.PeakKW, 1), num(o.Bill.Total, 0), num(o.Bill.Emissions/1000, 1),
-			num(o.Energy.HoursUnmet, 0), changes)
+		row := []string{s.Name}
+		if showPeriod {
+			row = append(row, study.Grouped(s.Energy.KWh))
+		}
+		row = append(row, study.Grouped(s.Annual.Energy), num(s.Energy.PeakKW, 1), study.Grouped(s.Annual.Total),
+			num(s.Annual.Emissions/1000, 1), num(s.Energy.HoursUnmet, 0), changes)
+		t.row(row...)
 	}
 	t.flush()
-	heading(out, "Against the baseline")
-	t.row("strategy", "saved (kWh/yr)", "saved (%)", "saved ("+cur+"/yr)", "drives added", "investment ("+cur+")",
-		"simple payback", "NPV ("+cur+")", "SIR")
-	for i, o := range pl.Outcomes {
-		if i == pl.Baseline || o.Appraisal == nil {
+	writeSavings(out, r)
+	writeRange(out, r)
+	writeChecks(out, r)
+	if len(r.Warnings) > 0 {
+		heading(out, "Warnings and notes")
+		for _, w := range r.Warnings {
+			fmt.Fprintf(out, "- %s: %s\n", w.Source, w.Message)
+		}
+	}
+	writeCautions(out)
+}
+
+// writeSavings writes each strategy against the baseline, with the
+// appraisal where the plant file has a retrofit section.
+func writeSavings(out io.Writer, r *study.Result) {
+	cur := r.Currency()
+	base := r.BaselineStrategy()
+	heading(out, "Against the baseline, a year")
+	t := newTable(out)
+	head := []string{"strategy", "saved (kWh/yr)", "saved (%)", "saved (" + cur + "/yr)", "drives added"}
+	if r.Appraised {
+		head = append(head, "investment ("+cur+")", "simple payback", "NPV ("+cur+")", "SIR")
+	}
+	t.row(head...)
+	for i, s := range r.Strategies {
+		if i == r.Baseline {
 			continue
 		}
-		a := o.Appraisal
-		savedPct := "—"
-		if base.Energy.KWh > 0 {
-			savedPct = fmt.Sprintf("%.1f", 100*a.EnergySaved/base.Energy.KWh)
+		sv := s.Savings
+		row := []string{s.Name, study.Grouped(sv.Energy), fmt.Sprintf("%.1f", 100*sv.Share(base)), study.Grouped(sv.Cost), fmt.Sprint(s.DrivesAdded)}
+		if a := s.Appraisal; a != nil {
+			sir := "—"
+			if !math.IsInf(a.SIR, 0) && !math.IsNaN(a.SIR) && a.Investment > 0 {
+				sir = num(a.SIR, 2)
+			}
+			row = append(row, study.Grouped(a.Investment), study.PaybackWords(a.SimplePayback), study.Grouped(a.NPV), sir)
 		}
-		sir := "—"
-		if !math.IsInf(a.SIR, 0) && !math.IsNaN(a.SIR) {
-			sir = num(a.SIR, 2)
-		}
-		t.row(o.Run.Name, num(a.EnergySaved, 0), savedPct, num(a.AnnualSavings, 0), fmt.Sprint(o.DrivesAdded),
-			num(a.Investment, 0), econ.PaybackText(a.SimplePayback), num(a.NPV, 0), sir)
+		t.row(row...)
 	}
 	t.flush()
-	r := p.Retrofit
-	fmt.Fprintf(out, "Economics: drives %.0f %s each, other costs %.0f %s, %d years at %.1f %% discount, energy escalating %.1f %%/yr\n",
-		r.DriveCost, cur, r.OtherCost, cur, r.LifeYears, 100*r.DiscountRate, 100*r.Escalation)
-
-	if lo := pl.Outcome(optimize.KeyLowest); lo != nil && lo.Appraisal != nil && len(pl.Range) > 0 {
-		heading(out, "Savings range of the lowest-power staging against the baseline")
-		t := newTable(out)
-		t.row("case", "control head", "motor+drive losses", "saved (kWh/yr)", "saved ("+cur+"/yr)")
-		rows := append([]optimize.RangeCase(nil), pl.Range...)
-		t.row("expected", "as given", "as given", num(lo.Appraisal.EnergySaved, 0), num(lo.Appraisal.AnnualSavings, 0))
-		for _, rc := range rows {
-			t.row(rc.Sensitivity.Label, fmt.Sprintf("× %.2f", rc.Sensitivity.ControlScale), fmt.Sprintf("× %.2f", rc.Sensitivity.LossScale),
-				num(rc.SavedKWh, 0), num(rc.SavedCost, 0))
-		}
-		t.flush()
-		lo, hi := lowHigh(pl, lo.Appraisal.EnergySaved)
-		fmt.Fprintf(out, "Savings range: %.0f to %.0f kWh/yr (expected %.0f)\n", lo, hi, pl.Outcome(optimize.KeyLowest).Appraisal.EnergySaved)
+	if !r.Appraised {
+		fmt.Fprintln(out, "No investment appraisal: the plant file has no retrofit section.")
+		return
 	}
+	rt := r.Plant.Retrofit
+	fmt.Fprintf(out, "Economics: drives %s %s each, other costs %s %s (programming and commissioning, with any change), %d years at %.1f %% discount, energy escalating %.1f %%/yr\n",
+		study.Grouped(rt.DriveCost), cur, study.Grouped(rt.OtherCost), cur, rt.LifeYears, 100*rt.DiscountRate, 100*rt.Escalation)
+}
 
+// writeRange writes the savings range of the lowest-power staging.
+func writeRange(out io.Writer, r *study.Result) {
+	g := r.Range
+	if g == nil {
+		return
+	}
+	cur := r.Currency()
+	lo := r.Strategy(study.KeyLowest)
+	heading(out, "Savings range of the lowest-power staging against the baseline")
+	t := newTable(out)
+	t.row("case", "control head", "motor+drive losses", "saved (kWh/yr)", "saved ("+cur+"/yr)")
+	t.row("expected", "as given", "as given", study.Grouped(lo.Savings.Energy), study.Grouped(lo.Savings.Cost))
+	for _, c := range g.Cases {
+		t.row(c.Sensitivity.Label, fmt.Sprintf("× %.2f", c.Sensitivity.ControlScale), fmt.Sprintf("× %.2f", c.Sensitivity.LossScale),
+			study.Grouped(c.SavedKWh), study.Grouped(c.SavedCost))
+	}
+	t.flush()
+	fmt.Fprintf(out, "Savings range: %s to %s kWh/yr (expected %s); low end: %s, high end: %s\n",
+		study.Grouped(g.Low), study.Grouped(g.High), study.Grouped(lo.Savings.Energy), g.LowBy, g.HighBy)
+}
+
+func writeChecks(out io.Writer, r *study.Result) {
+	p := r.Plant
+	u := p.Units
 	heading(out, "Checks")
-	for _, c := range pl.PartLoad {
-		verdict := "meets"
-		if !c.Pass {
-			verdict = "does NOT meet"
-		}
+	for _, c := range r.PartLoad {
 		if c.DesignKW == 0 {
 			fmt.Fprintf(out, "- Part load, %s: %s\n", c.Label, c.Note)
 			continue
 		}
+		verdict := "meets"
+		if !c.Pass {
+			verdict = "does NOT meet"
+		}
 		fmt.Fprintf(out, "- Part load, %s: %.1f kW at 50 %% of design flow = %.1f %% of the %.1f kW at design; %s the 30 %% limit (%s)\n",
 			c.Label, c.HalfKW, 100*c.Ratio, c.DesignKW, verdict, c.Note)
 	}
-	if uo := pl.UnitOut; uo != nil {
+	if uo := r.UnitOut; uo != nil {
 		if uo.ServesDesign {
 			fmt.Fprintf(out, "- One unit out (%s): the rest serve design flow %s", uo.Removed, u.FormatFlow(p.DesignFlow))
 		} else {
@@ -245,92 +253,39 @@ func writePlan(out io.Writer, in *planInput, pl *optimize.Plan) {
 		}
 		fmt.Fprintln(out)
 	}
-	if in.trend != nil {
-		writeTrendChecks(out, in, pl)
+	if b := r.Binning; b != nil {
+		fmt.Fprintf(out, "- Binning: every interval solved gives %s kWh/yr for the lowest-power staging; %d bins of %s give %s kWh/yr (%+.2f %%; the cube-law estimate of the binning error is %.2f %%)\n",
+			study.Grouped(b.EveryKWh), b.Bins, u.FormatFlow(b.Width), study.Grouped(b.BinnedKWh), 100*(b.BinnedKWh/b.EveryKWh-1), 100*b.CubeError)
 	}
-	var notes []string
-	notes = append(notes, pl.Warnings...)
-	for _, o := range pl.Outcomes {
-		if o.Bill != nil {
-			for _, w := range o.Bill.Warnings {
-				notes = appendOnce(notes, "tariff: "+w)
-			}
+	if c := r.Calibration; c != nil {
+		verdict := "within"
+		if !c.Calibrated() {
+			verdict = "outside"
 		}
-		for _, l := range o.Energy.UnmetReasons() {
-			notes = append(notes, fmt.Sprintf("%s: %.0f h unmet (%s)", o.Run.Name, o.Energy.UnmetBy[l], l))
-		}
+		fmt.Fprintf(out, "- Predicted vs logged power (%s, %d intervals): mean logged %.2f kW, mean error (predicted − logged) %+.2f kW, NMBE %+.1f %%, CV(RMSE) %.1f %%, largest error %.2f kW;\n",
+			c.Strategy, c.N, c.MeanKW, c.MeanErr, 100*c.NMBE, 100*c.CVRMSE, c.MaxAbs)
+		fmt.Fprintf(out, "  %s the ASHRAE Guideline 14 hourly calibration criteria (from memory: NMBE within ±10 %%, CV(RMSE) at most 30 %%)\n", verdict)
 	}
-	if len(notes) > 0 {
-		heading(out, "Notes")
-		for _, n := range notes {
-			fmt.Fprintln(out, "- "+n)
-		}
-	}
-	writeCautions(out)
 }
 
-// lowHigh returns the smallest and largest energy savings over the
-// expected case and the sensitivity cases.
-func lowHigh(pl *optimize.Plan, expected float64) (float64, float64) {
-	lo, hi := expected, expected
-	for _, rc := range pl.Range {
-		lo, hi = math.Min(lo, rc.SavedKWh), math.Max(hi, rc.SavedKWh)
-	}
-	return lo, hi
-}
-
-func appendOnce(list []string, s string) []string {
-	for _, v := range list {
-		if v == s {
-			return list
-		}
-	}
-	return append(list, s)
-}
-
-func writeProfileLine(out io.Writer, in *planInput) {
-	hours := 0.0
-	for _, s := range in.steps {
-		hours += s.Hours
-	}
+func writeProfileLine(out io.Writer, r *study.Input) {
+	pd := study.PeriodOf(r.Steps)
 	switch {
-	case in.binned != nil && len(in.binned.Bins) == len(in.steps):
-		fmt.Fprintf(out, "Profile: trend %s binned into %d bins of %s, %.0f h (binning error estimate %.2f %% on a cube law)\n",
-			in.trend.Name, len(in.binned.Bins), in.plant.Units.FormatFlow(in.binned.Width), hours, 100*in.binned.CubeError)
-	case in.trend != nil:
-		fmt.Fprintf(out, "Profile: trend %s, %d intervals of %s, %.0f h, coverage %.1f %% of the span\n",
-			in.trend.Name, len(in.trend.Points), in.trend.Interval, hours, 100*in.trend.Coverage())
-		fmt.Fprintf(out, "Trend rows: %s\n", strings.TrimSpace(in.trend.Report.Summary()))
+	case r.Binned != nil:
+		fmt.Fprintf(out, "Profile: trend %s binned into %d bins of %s, %s h (binning error estimate %.2f %% on a cube law)\n",
+			r.Trend.Name, len(r.Binned.Bins), r.Plant.Units.FormatFlow(r.Binned.Width), study.Grouped(pd.CoveredHours), 100*r.Binned.CubeError)
+	case r.Trend != nil:
+		fmt.Fprintf(out, "Profile: trend %s, %s intervals of %s, %s h from %s to %s, coverage %.1f %% of the span\n",
+			r.Trend.Name, study.Grouped(float64(len(r.Trend.Points))), r.Trend.Interval, study.Grouped(pd.CoveredHours),
+			pd.Start.Format("2006-01-02 15:04"), pd.End.Format("2006-01-02 15:04"), 100*pd.Coverage())
+		fmt.Fprintf(out, "Trend rows: %s\n", strings.TrimSpace(r.Trend.Report.Summary()))
 	default:
-		fmt.Fprintf(out, "Profile: %d bins, %.0f h/yr\n", len(in.steps), hours)
+		fmt.Fprintf(out, "Profile: %d bins, %s h\n", len(r.Steps), study.Grouped(pd.CoveredHours))
 	}
-}
-
-func writeTrendChecks(out io.Writer, in *planInput, pl *optimize.Plan) {
-	if pl.BinnedKWh > 0 {
-		lo := pl.Outcomes[0].Energy.KWh
-		fmt.Fprintf(out, "- Binning: every interval solved gives %.0f kWh/yr for the lowest-power staging; %d bins of %s give %.0f kWh/yr (%+.2f %%; the cube-law estimate of the binning error is %.2f %%)\n",
-			lo, len(in.binned.Bins), in.plant.Units.FormatFlow(in.binned.Width), pl.BinnedKWh, 100*(pl.BinnedKWh/lo-1), 100*in.binned.CubeError)
+	if math.Abs(pd.Factor-1) > 1e-9 {
+		fmt.Fprintf(out, "A year: the period's energy, cost and emissions × %.4f (8,760 h ÷ %s h covered); demand charges from the mean of the covered months\n",
+			pd.Factor, study.Grouped(pd.CoveredHours))
 	}
-	if !in.trend.HasPower() {
-		return
-	}
-	key := optimize.KeyLowest
-	if pl.Outcome(optimize.KeyCurrent) != nil {
-		key = optimize.KeyCurrent
-	}
-	o := pl.Outcome(key)
-	c := optimize.Calibrate(o.Run, in.steps)
-	if c.N < 2 {
-		return
-	}
-	fmt.Fprintf(out, "- Predicted vs measured power (%s, %d intervals): mean measured %.2f kW, mean error %+.2f kW, NMBE %+.1f %%, CV(RMSE) %.1f %%, largest error %.2f kW\n",
-		o.Run.Name, c.N, c.MeanKW, c.MeanErr, 100*c.NMBE, 100*c.CVRMSE, c.MaxAbs)
-	verdict := "within"
-	if math.Abs(c.NMBE) > 0.10 || c.CVRMSE > 0.30 {
-		verdict = "outside"
-	}
-	fmt.Fprintf(out, "  %s the ASHRAE Guideline 14 hourly calibration criteria (from memory: NMBE within ±10 %%, CV(RMSE) at most 30 %%); calibrate the control head, curves or motor/drive data before relying on savings\n", verdict)
 }
 
 func fmtFlow(u curves.UnitSystem, q curves.Flow) string { return u.FormatFlow(q) }

@@ -10,6 +10,7 @@ import (
 
 	"wattstage/optimize"
 	"wattstage/plant"
+	"wattstage/study"
 )
 
 // SetpointsOptions are the inputs of `wattstage setpoints`.
@@ -66,11 +67,15 @@ with the unconstrained optimum and with the plant's current thresholds.`,
 }
 
 func setpointsRun(opts *SetpointsOptions) error {
-	in, err := loadPlanInput(opts.PlantPath, "")
+	pl, err := loadPlant(opts.PlantPath)
 	if err != nil {
 		return err
 	}
-	sp, err := optimize.DeriveSetpoints(in.plant, optimize.SetpointOptions{Deadband: opts.Deadband,
+	in, err := study.Prepare(pl, 0)
+	if err != nil {
+		return badInput(err)
+	}
+	sp, err := optimize.DeriveSetpoints(in.Plant, optimize.SetpointOptions{Deadband: opts.Deadband,
 		UpDelay: opts.UpDelay, DownDelay: opts.DownDelay})
 	if err != nil {
 		return err
@@ -79,13 +84,13 @@ func setpointsRun(opts *SetpointsOptions) error {
 	if opts.Basis == "speed" {
 		basis = optimize.SpeedBasis
 	}
-	price := optimize.PriceSequence(sp, in.steps, basis)
+	price := optimize.PriceSequence(sp, in.Steps, basis)
 	if opts.JSON {
 		return writeJSON(opts.IO.Out, map[string]any{"setpoints": sp, "price": priceJSON(price),
-			"sequence_of_operation": sp.SequenceOfOperation(), "cautions": cautions})
+			"sequence_of_operation": sp.SequenceOfOperation(), "cautions": study.Cautions})
 	}
 	out := opts.IO.Out
-	p := in.plant
+	p := in.Plant
 	fmt.Fprintf(out, "Plant: %s\n", p.Name)
 	heading(out, "Staging setpoints (adjustable starting values)")
 	if err := sp.WriteTable(out); err != nil {
@@ -103,7 +108,7 @@ func setpointsRun(opts *SetpointsOptions) error {
 	t := newTable(out)
 	t.row("way of staging", "energy (kWh/yr)", "vs optimum (%)", "stage changes")
 	changes := func(n int) string {
-		if len(in.steps) > 0 && in.steps[0].Timed() {
+		if len(in.Steps) > 0 && in.Steps[0].Timed() {
 			return fmt.Sprint(n)
 		}
 		return "—"
@@ -114,7 +119,7 @@ func setpointsRun(opts *SetpointsOptions) error {
 		t.row("current thresholds", num(price.Current.KWh, 0), fmt.Sprintf("%+.2f", price.CurrentExtraPct), changes(price.Current.Changes))
 	}
 	t.flush()
-	if len(in.steps) > 0 && in.steps[0].Timed() {
+	if len(in.Steps) > 0 && in.Steps[0].Timed() {
 		fmt.Fprintf(out, "Derived sequence: %.2f stage changes per day on average, at most %d in one hour\n",
 			price.Cycling.PerDay, price.Cycling.MaxPerHour)
 		for _, m := range price.Cycling.Models {
@@ -144,17 +149,6 @@ func priceJSON(pr optimize.SequencePrice) map[string]any {
 		m["current_extra_pct"] = pr.CurrentExtraPct
 	}
 	return m
-}
-
-// derivedStrategy returns the derived setpoint sequence as an extra plan
-// strategy, or none where the plant has no drives or no sequence can be
-// derived.
-func derivedStrategy(p *plant.Plant) []optimize.Keyed {
-	sp, err := optimize.DeriveSetpoints(p, optimize.SetpointOptions{})
-	if err != nil || len(sp.Transitions) == 0 {
-		return nil
-	}
-	return []optimize.Keyed{{Key: optimize.KeyDerived, Strategy: optimize.NewSequenced("derived setpoints", sp, optimize.FlowBasis)}}
 }
 
 // writeOrder shows, for each change, the combinations with the new count of

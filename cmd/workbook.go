@@ -5,26 +5,19 @@ import (
 	"fmt"
 
 	"wattstage/handover"
-	"wattstage/optimize"
+	"wattstage/study"
 	"wattstage/workbook"
 )
 
-// writeWorkbook maps the plan into the workbook and writes it atomically.
-func writeWorkbook(path, input string, force bool, in *planInput, pl *optimize.Plan) error {
-	hi := handover.Input{Plant: in.plant, Plan: pl, Strategies: pl.Strategies, LoadSteps: pl.Steps,
-		Staging: handover.Staging(in.plant)}
-	if in.binned != nil && len(pl.Steps) != len(in.binned.Bins) {
-		hi.LoadSteps = optimize.StepsFromBinned(in.binned)
-		hi.LoadNote = fmt.Sprintf("Load points show the trend binned into %d bins of %s; the annual totals come from every interval (wattstage plan --json gives every interval). Strategies that stage in time order with delays and hysteresis (the current sequence, the derived setpoints) are shown at each bin as if the flow rose to it, so their bin kWh do not add up to their annual totals.",
-			len(in.binned.Bins), in.plant.Units.FormatFlow(in.binned.Width))
-	}
-	rep, err := handover.Build(hi)
+// writeWorkbook renders the study into the workbook and writes it atomically.
+func writeWorkbook(path, input string, force bool, res *study.Result) error {
+	rep, err := handover.Build(res)
 	if err != nil {
 		return err
 	}
 	inputs := []string{input}
-	if in.trend != nil {
-		inputs = append(inputs, in.trend.Name)
+	if res.Trend != nil {
+		inputs = append(inputs, res.Trend.Name)
 	}
 	err = workbook.Write(path, rep, workbook.Options{Force: force, InputPaths: inputs})
 	switch {

@@ -10,64 +10,39 @@ import (
 	"strings"
 
 	"wattstage/curves"
-	"wattstage/optimize"
+	"wattstage/study"
 	"wattstage/plant"
 	"wattstage/workbook"
 )
 
-// Input is what the workbook is made from.
-type Input struct {
-	Plant *plant.Plant
-	Plan  *optimize.Plan
-	// Strategies are the strategies of the plan (optimize.Strategies plus
-	// extras, in the plan's order), rerun on a flow grid for the group
-	// power chart and, for a trend, on its bins for the load points.
-	Strategies []optimize.Keyed
-	// LoadSteps are the steps shown on the load-points sheet: the plan's
-	// steps for a bin profile, the trend's bins for a trend.
-	LoadSteps []optimize.Step
-	// LoadNote says what LoadSteps are, for the notes.
-	LoadNote string
-	Staging  workbook.Staging
-	Cautions []string
-}
-
-// Build maps the input into a workbook report.
-func Build(in Input) (*workbook.Report, error) {
-	p, pl := in.Plant, in.Plan
+// Build maps a study's result into the workbook report. It computes
+// nothing the result does not hold: no solver call, no pricing; the
+// numbers are the result's, converted to the plant's display units.
+func Build(res *study.Result) (*workbook.Report, error) {
+	p := res.Plant
 	u := p.Units
-	cur := p.Tariff.Currency
-	if cur == "" {
-		cur = "$"
-	}
 	r := &workbook.Report{
 		Plant:    p.Name,
 		Subtitle: fmt.Sprintf("%s; %s; %d pump model(s), %d units", p.System.Describe(), pumpCount(p), len(p.Models), units(p)),
 		Units: workbook.Units{System: u.String(), Flow: u.FlowUnit(), Head: u.HeadUnit(), MotorPower: u.PowerUnit(),
-			Speed: "rpm", Currency: cur},
-		Cautions:    in.Cautions,
-		Assumptions: assumptions(p),
-		Baseline:    pl.Baseline,
-		Staging:     in.Staging,
+			Speed: "rpm", Currency: res.Currency()},
+		Cautions:    res.Cautions,
+		Assumptions: assumptions(res),
+		Baseline:    res.Baseline,
+		Staging:     Staging(res),
 	}
-	for _, w := range pl.Warnings {
-		r.Notes = append(r.Notes, w)
+	for _, w := range res.Warnings {
+		r.Notes = append(r.Notes, w.Source+": "+w.Message)
 	}
-	if in.LoadNote != "" {
-		r.Notes = append(r.Notes, in.LoadNote)
-	}
-	for _, o := range pl.Outcomes {
-		if o.Bill != nil {
-			for _, w := range o.Bill.Warnings {
-				r.Notes = appendOnce(r.Notes, "Tariff: "+w)
-			}
-		}
+	if res.LoadBinWidth > 0 {
+		r.Notes = append(r.Notes, fmt.Sprintf("Load points gather the trend's intervals into flow groups %s wide: hours, energy and cost are the sums over the group's intervals (so they add up to the annual totals); the units, speeds and efficiencies shown are those of the group's served interval nearest its mean flow.",
+			u.FormatFlow(res.LoadBinWidth)))
 	}
 	inputs(r, p)
-	strategies(r, pl)
-	checks(r, p, pl)
-	r.LoadPoints = loadPoints(p, in.Strategies, in.LoadSteps)
-	r.Curves = curveTables(p, in.Strategies)
+	strategies(r, res)
+	checks(r, res)
+	r.LoadPoints = loadPoints(res)
+	r.Curves = curveTables(res)
 	r.Economics = workbook.EconomicsInputs{EnergyPrice: p.Tariff.EnergyPrice, DemandCharge: p.Tariff.DemandCharge,
 		DriveCost: p.Retrofit.DriveCost, OtherCost: p.Retrofit.OtherCost, LifeYears: p.Retrofit.LifeYears,
 		DiscountRate: p.Retrofit.DiscountRate, Escalation: p.Retrofit.Escalation, EmissionsFactor: p.Tariff.EmissionsFactor}
@@ -89,22 +64,22 @@ func pumpCount(p *plant.Plant) string {
 	return fmt.Sprintf("design %s at %s", p.Units.FormatFlow(p.DesignFlow), p.Units.FormatHead(p.DesignHead))
 }
 
-func appendOnce(list []string, s string) []string {
-	for _, v := range list {
-		if v == s {
-			return list
-		}
-	}
-	return append(list, s)
-}
-
-func assumptions(p *plant.Plant) []string {
+func assumptions(res *study.Result) []string {
+	p := res.Plant
 	out := append([]string(nil), p.Defaults...)
 	out = append(out,
 		"Pumped flow is the larger of the load flow and the plant minimum flow; the bypass carries the difference.",
 		"The header head is at least the system's need at the load flow; above it, valves absorb the excess.",
-		"Affinity laws scale the fitted rated-speed curves: H(Q,s) = s²·H₀(Q/s), η(Q,s) = η₀(Q/s), less any efficiency step-down at reduced speed listed above.",
-		"Savings range: control head (or static head) and motor-plus-drive losses moved by ±25 %.",
+		"Affinity laws scale the fitted rated-speed curves: H(Q,s) = s²·H₀(Q/s), η(Q,s) = η₀(Q/s), less any efficiency step-down at reduced speed listed above.")
+	if rg := res.Range; rg != nil {
+		var what []string
+		for _, c := range rg.Cases {
+			what = append(what, c.Sensitivity.Label)
+		}
+		out = append(out, "Savings range: the lowest-power staging and the baseline re-run together with "+strings.Join(what, "; ")+" (each on its own, across-the-line motors included).")
+	}
+	pd := res.Period
+	out = append(out, fmt.Sprintf("Annual figures: the period's energy, cost and emissions × %.4f (8,760 h ÷ %s h covered); demand charges from the mean of the covered months' billed peaks × 12.", pd.Factor, study.Grouped(pd.CoveredHours)),
 		"Results are planning estimates; see the cautions.")
 	return out
 }
@@ -211,144 +186,139 @@ func displayCoeffs(p curves.Poly, xPer, yPer float64, throughOrigin bool) []floa
 	return out
 }
 
-func strategies(r *workbook.Report, pl *optimize.Plan) {
-	for _, o := range pl.Outcomes {
-		s := workbook.Strategy{Name: o.Run.Name, Description: o.Run.Note, EnergyKWh: o.Energy.KWh, PeakKW: o.Energy.PeakKW,
-			DrivesToBuy: o.DrivesAdded, HoursUnmet: o.Energy.HoursUnmet}
-		if o.Bill != nil {
-			s.EnergyCost = o.Bill.EnergyCost
-			for _, m := range o.Bill.Months {
-				s.BilledDemand += m.PeakKW
-			}
+func strategies(r *workbook.Report, res *study.Result) {
+	for _, st := range res.Strategies {
+		a := st.Annual
+		r.Strategies = append(r.Strategies, workbook.Strategy{Name: st.Name, Description: st.Note, EnergyKWh: a.Energy,
+			PeakKW: st.Energy.PeakKW, DrivesToBuy: st.DrivesAdded, HoursUnmet: st.Energy.HoursUnmet * res.Period.Factor,
+			EnergyCost: a.EnergyCost, BilledDemand: a.BilledDemand})
+	}
+	if res.Recommendation != "" {
+		r.Recommendation = res.Recommendation + " (Written by wattstage from the inputs as given; editing the Economics inputs recalculates the tables, not this sentence.)"
+	}
+	if rg := res.Range; rg != nil {
+		lo := res.Strategy(study.KeyLowest)
+		r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: "Savings, expected (as given)", Value: lo.Savings.Energy, Unit: "kWh/yr"})
+		for _, c := range rg.Cases {
+			r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: "Savings, " + c.Sensitivity.Label, Value: c.SavedKWh, Unit: "kWh/yr"})
 		}
-		r.Strategies = append(r.Strategies, s)
-	}
-	if lo := pl.Outcome(optimize.KeyLowest); lo != nil && lo.Appraisal != nil {
-		base := pl.Outcomes[pl.Baseline]
-		a := lo.Appraisal
-		// The Summary adds where the setpoints are; numbers grouped as its table shows them.
-		r.Recommendation = fmt.Sprintf("Run the lowest-power staging: %s kWh/yr against %s kWh/yr for %s (%.0f %% less), saving about %s %s/yr; %d drive(s) to buy, simple payback %s.",
-			grouped(lo.Energy.KWh), grouped(base.Energy.KWh), base.Run.Name, 100*a.EnergySaved/math.Max(base.Energy.KWh, 1e-9), grouped(a.AnnualSavings), r.Units.Currency,
-			lo.DrivesAdded, paybackWords(a.SimplePayback))
-		r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: "Savings, expected (as given)", Value: a.EnergySaved, Unit: "kWh/yr"})
-	}
-	for _, rc := range pl.Range {
-		r.SavingsRange = append(r.SavingsRange, workbook.Quantity{Label: fmt.Sprintf("Savings, control head × %.2f and losses × %.2f",
-			rc.Sensitivity.ControlScale, rc.Sensitivity.LossScale), Value: rc.SavedKWh, Unit: "kWh/yr"})
+		r.SavingsRange = append(r.SavingsRange,
+			workbook.Quantity{Label: "Savings range, low end (" + rg.LowBy + ")", Value: rg.Low, Unit: "kWh/yr"},
+			workbook.Quantity{Label: "Savings range, high end (" + rg.HighBy + ")", Value: rg.High, Unit: "kWh/yr"})
 	}
 }
 
-// grouped writes v rounded to a whole number with thousands separators,
-// e.g. 122,665.
-func grouped(v float64) string {
-	digits := fmt.Sprintf("%.0f", math.Abs(v))
-	var b strings.Builder
-	if math.Round(v) < 0 {
-		b.WriteByte('-')
-	}
-	for i, d := range digits {
-		if i > 0 && (len(digits)-i)%3 == 0 {
-			b.WriteByte(',')
-		}
-		b.WriteRune(d)
-	}
-	return b.String()
-}
-
-func paybackWords(y float64) string {
-	if math.IsInf(y, 1) || math.IsNaN(y) {
-		return "never"
-	}
-	return fmt.Sprintf("%.1f years", y)
-}
-
-func checks(r *workbook.Report, p *plant.Plant, pl *optimize.Plan) {
-	for _, c := range pl.PartLoad {
-		res := "pass"
-		if !c.Pass {
-			res = "fails"
-		}
+func checks(r *workbook.Report, res *study.Result) {
+	p := res.Plant
+	for _, c := range res.PartLoad {
+		name := "Part-load power (ASHRAE 90.1 §6.5.4.2), " + c.Label
 		if c.DesignKW == 0 {
-			r.Checks = append(r.Checks, workbook.Check{Name: "Part-load power (ASHRAE 90.1 §6.5.4.2), " + c.Label, Result: "not applicable", Detail: c.Note})
+			r.Checks = append(r.Checks, workbook.Check{Name: name, Result: "not applicable", Detail: c.Note})
 			continue
 		}
-		r.Checks = append(r.Checks, workbook.Check{Name: "Part-load power (ASHRAE 90.1 §6.5.4.2), " + c.Label, Result: res,
+		verdict := "pass"
+		if !c.Pass {
+			verdict = "fails"
+		}
+		r.Checks = append(r.Checks, workbook.Check{Name: name, Result: verdict,
 			Detail: fmt.Sprintf("%.1f kW at 50 %% of design flow = %.1f %% of %.1f kW at design (limit 30 %%); %s", c.HalfKW, 100*c.Ratio, c.DesignKW, c.Note)})
 	}
-	if uo := pl.UnitOut; uo != nil {
+	if uo := res.UnitOut; uo != nil {
 		u := p.Units
-		res := "serves design flow"
+		verdict := "serves design flow"
 		if !uo.ServesDesign {
-			res = "short of design flow"
+			verdict = "short of design flow"
 		}
 		var loads []string
 		for _, un := range uo.AtMax.Units {
 			loads = append(loads, fmt.Sprintf("%.0f %%", 100*un.Load))
 		}
-		r.Checks = append(r.Checks, workbook.Check{Name: "One unit out (" + uo.Removed + ")", Result: res,
+		r.Checks = append(r.Checks, workbook.Check{Name: "One unit out (" + uo.Removed + ")", Result: verdict,
 			Detail: fmt.Sprintf("the remaining units deliver at most %s (%.0f %% of design) at %s; motor loads %s",
 				u.FormatFlow(uo.MaxFlow), 100*float64(uo.MaxFlow/p.DesignFlow), u.FormatHead(uo.AtMax.HeaderHead), strings.Join(loads, ", "))})
 	}
+	if c := res.Calibration; c != nil {
+		verdict := "within the hourly criteria"
+		if !c.Calibrated() {
+			verdict = "outside the hourly criteria"
+		}
+		r.Checks = append(r.Checks, workbook.Check{Name: "Predicted against logged power (ASHRAE Guideline 14, from memory), " + c.Strategy, Result: verdict,
+			Detail: fmt.Sprintf("%d intervals: mean logged %.2f kW, mean error %+.2f kW, NMBE %+.1f %% (limit ±10 %%), CV(RMSE) %.1f %% (limit 30 %%)",
+				c.N, c.MeanKW, c.MeanErr, 100*c.NMBE, 100*c.CVRMSE)})
+	}
 }
 
-func loadPoints(p *plant.Plant, ks []optimize.Keyed, steps []optimize.Step) []workbook.LoadPoint {
+// loadPoints are the result's load points of every strategy, a year.
+func loadPoints(res *study.Result) []workbook.LoadPoint {
+	p := res.Plant
 	u := p.Units
+	f := res.Period.Factor
 	var out []workbook.LoadPoint
-	price := p.Tariff.EnergyPrice
-	for _, k := range ks {
-		run := k.Strategy.Run(steps)
-		rp := run.Plant
+	for _, st := range res.Strategies {
+		rp := st.Run.Plant
 		if rp == nil {
 			rp = p
 		}
-		for i, st := range steps {
-			res := run.Points[i]
-			lp := workbook.LoadPoint{Bin: binLabel(u, st, i), Strategy: run.Name, PlantFlow: u.FlowOut(st.Load),
-				RequiredHead: u.HeadOut(res.RequiredHead), Head: u.HeadOut(res.HeaderHead), Hours: st.Hours,
-				UnitsRunning: res.Running(), KW: float64(res.Power) / curves.KW, Binding: string(res.Limit)}
-			if res.Status != optimize.Served {
-				lp.Flags = "unmet: " + res.Reason
-				lp.KW = 0
-			}
-			lp.KWh = lp.KW * st.Hours
-			lp.Cost = lp.KWh * price
-			var names []string
+		for i, lp := range st.LoadPoints {
+			s := lp.State
+			w := workbook.LoadPoint{Bin: pointLabel(res, lp, i), Strategy: st.Name, PlantFlow: u.FlowOut(lp.Flow),
+				RequiredHead: u.HeadOut(s.RequiredHead), Head: u.HeadOut(s.HeaderHead), Hours: lp.Hours * f,
+				UnitsRunning: s.Running(), KW: lp.KW, KWh: lp.KWh * f, Cost: lp.Cost * f, Binding: string(s.Limit)}
 			var flags []string
-			for j, un := range res.Units {
+			if lp.HoursUnmet > 0 {
+				flags = append(flags, fmt.Sprintf("unmet %s h/yr: %s", study.Grouped(lp.HoursUnmet*f), s.Reason))
+			}
+			var names []string
+			for j, un := range s.Units {
 				m := rp.Models[un.Model]
 				names = append(names, fmt.Sprintf("%s#%d", m.Name, j+1))
 				de := 100 * un.DriveEff
 				if !m.Drive.Variable() {
 					de = math.NaN()
 				}
-				lp.Units = append(lp.Units, workbook.UnitPoint{Unit: m.Name, Speed: 100 * un.Speed, Flow: u.FlowOut(un.Flow),
+				w.Units = append(w.Units, workbook.UnitPoint{Unit: m.Name, Speed: 100 * un.Speed, Flow: u.FlowOut(un.Flow),
 					PumpEff: 100 * un.PumpEff, MotorEff: 100 * un.MotorEff, DriveEff: de, KW: float64(un.Electrical) / curves.KW})
 				if !un.Preferred {
 					flags = appendOnce(flags, "outside preferred region")
 				}
 			}
-			if res.BypassFlow > 0 {
+			if s.BypassFlow > 0 {
 				flags = appendOnce(flags, "bypass open")
 			}
-			if res.HeaderHead > res.RequiredHead*(1+1e-6) {
+			if s.HeaderHead > s.RequiredHead*(1+1e-6) {
 				flags = appendOnce(flags, "above the control curve")
 			}
-			lp.Running = strings.Join(names, "+")
-			if len(flags) > 0 {
-				if lp.Flags != "" {
-					lp.Flags += "; "
-				}
-				lp.Flags += strings.Join(flags, "; ")
+			if lp.Grouped {
+				flags = appendOnce(flags, fmt.Sprintf("%d intervals; units shown for a typical one", lp.Steps))
 			}
-			out = append(out, lp)
+			w.Running = strings.Join(names, "+")
+			w.Flags = strings.Join(flags, "; ")
+			out = append(out, w)
 		}
 	}
 	return out
 }
 
-func binLabel(u curves.UnitSystem, st optimize.Step, i int) string {
-	if st.Timed() {
-		return st.Time.Format("2006-01-02 15:04")
+func appendOnce(list []string, s string) []string {
+	for _, v := range list {
+		if v == s {
+			return list
+		}
+	}
+	return append(list, s)
+}
+
+// pointLabel names a load point: its flow group, the interval's time, or
+// the bin's number.
+func pointLabel(res *study.Result, lp study.LoadPoint, i int) string {
+	u := res.Plant.Units
+	switch {
+	case lp.Grouped && lp.High == 0:
+		return "zero flow"
+	case lp.Grouped:
+		return fmt.Sprintf("%s–%s %s", study.Grouped(u.FlowOut(lp.Low)), study.Grouped(u.FlowOut(lp.High)), u.FlowUnit())
+	case res.Period.Timed:
+		return res.Steps[i].Time.Format("2006-01-02 15:04")
 	}
 	return fmt.Sprintf("bin %d", i+1)
 }
@@ -356,7 +326,8 @@ func binLabel(u curves.UnitSystem, st optimize.Step, i int) string {
 // curveTables tabulates the charts: each model's head at several speeds
 // with the control curve shared by 1…n running units, efficiency at those
 // speeds, and each strategy's group power across plant flow.
-func curveTables(p *plant.Plant, ks []optimize.Keyed) workbook.Curves {
+func curveTables(res *study.Result) workbook.Curves {
+	p := res.Plant
 	u := p.Units
 	var c workbook.Curves
 	for _, m := range p.Models {
@@ -407,23 +378,13 @@ func curveTables(p *plant.Plant, ks []optimize.Keyed) workbook.Curves {
 		c.Efficiency = append(c.Efficiency, ec)
 	}
 	gp := workbook.Chart{Title: "Group input power across plant flow", XLabel: "Plant flow (" + u.FlowUnit() + ")", YLabel: "Input power (kW)"}
-	var grid []optimize.Step
-	const n = 30
-	for k := 1; k <= n; k++ {
-		grid = append(grid, optimize.Step{Load: curves.Flow(float64(p.DesignFlow) * float64(k) / n), Hours: 1, MeasuredKW: math.NaN()})
-	}
-	for _, k := range ks {
-		run := k.Strategy.Run(grid)
-		s := workbook.Series{Name: run.Name}
-		for i, st := range grid {
-			s.X = append(s.X, u.FlowOut(st.Load))
-			if run.Points[i].Status == optimize.Served {
-				s.Y = append(s.Y, float64(run.Points[i].Power)/curves.KW)
-			} else {
-				s.Y = append(s.Y, math.NaN())
-			}
+	for _, pc := range res.GroupPower {
+		series := workbook.Series{Name: pc.Name}
+		for k, q := range pc.Flow {
+			series.X = append(series.X, u.FlowOut(q))
+			series.Y = append(series.Y, pc.KW[k])
 		}
-		gp.Series = append(gp.Series, s)
+		gp.Series = append(gp.Series, series)
 	}
 	c.GroupPower = gp
 	return c

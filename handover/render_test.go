@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"wattstage/study"
 	"wattstage/workbook"
 	"wattstage/workbook/officecheck"
 )
@@ -57,7 +58,7 @@ func TestRenderTrendExample(t *testing.T) {
 	t.Logf("the Summary takes %d page(s)", idx["Economics: "]-idx["Pump group plan: "])
 
 	summary := pages[idx["Pump group plan: "]]
-	for _, c := range workbook.DefaultCautions {
+	for _, c := range study.Cautions {
 		if !strings.Contains(summary, strings.Join(strings.Fields(c)[:6], " ")) {
 			t.Errorf("the Summary page lacks the caution %q", c)
 		}

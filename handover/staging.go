@@ -6,16 +6,16 @@ import (
 	"strings"
 
 	"wattstage/optimize"
-	"wattstage/plant"
+	"wattstage/study"
 	"wattstage/workbook"
 )
 
-// Staging returns the Staging sheet's content: the derived setpoints with
-// their default options, as rows, settings and the sequence of operation.
-func Staging(p *plant.Plant) workbook.Staging {
-	sp, err := optimize.DeriveSetpoints(p, optimize.SetpointOptions{})
-	if err != nil {
-		return workbook.Staging{Settings: []workbook.Quantity{{Label: "Setpoints", Text: "could not be derived: " + err.Error()}}}
+// Staging returns the Staging sheet's content: the study's derived
+// setpoints, as rows, settings and the sequence of operation.
+func Staging(res *study.Result) workbook.Staging {
+	sp, p := res.Setpoints, res.Plant
+	if sp == nil {
+		return workbook.Staging{Settings: []workbook.Quantity{{Label: "Setpoints", Text: "could not be derived: " + res.SetpointsError}}}
 	}
 	u := p.Units
 	var st workbook.Staging

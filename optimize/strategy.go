@@ -93,7 +93,9 @@ func abs(v int) int {
 	return v
 }
 
-// drives counts the units on variable-speed drives.
+// Drives counts the units on variable-speed drives.
+func Drives(p *plant.Plant) int { return drives(p) }
+
 func drives(p *plant.Plant) int {
 	n := 0
 	for _, m := range p.Models {
@@ -245,7 +247,7 @@ func FixedVariant(p *plant.Plant) *plant.Plant {
 	q := *p
 	q.Models = append([]plant.Model(nil), p.Models...)
 	for i := range q.Models {
-		q.Models[i].Drive = curves.FixedSpeed{}
+		q.Models[i].Drive = curves.Rewire(q.Models[i].Drive, curves.FixedSpeed{})
 	}
 	return &q
 }
@@ -260,7 +262,7 @@ func PartialVariant(p *plant.Plant, withDrive []int, drive curves.Drive) *plant.
 		d := min(withDrive[i], m.Count)
 		if d > 0 {
 			v := m
-			v.Count, v.Drive = d, drive
+			v.Count, v.Drive = d, curves.Rewire(m.Drive, drive)
 			if d < m.Count {
 				v.Name = m.Name + " (drive)"
 			}
@@ -268,7 +270,7 @@ func PartialVariant(p *plant.Plant, withDrive []int, drive curves.Drive) *plant.
 		}
 		if m.Count-d > 0 {
 			f := m
-			f.Count, f.Drive = m.Count-d, curves.FixedSpeed{}
+			f.Count, f.Drive = m.Count-d, curves.Rewire(m.Drive, curves.FixedSpeed{})
 			if d > 0 {
 				f.Name = m.Name + " (fixed)"
 			}

@@ -1,7 +1,8 @@
-package optimize
+package study
 
 import (
 	"math"
+	"wattstage/optimize"
 
 	"wattstage/curves"
 )
@@ -12,19 +13,25 @@ type Calibration struct {
 	N        int     // steps with both a prediction and a measurement
 	MeanKW   float64 // mean measured power
 	MeanErr  float64 // mean of predicted − measured, kW
-	NMBE     float64 // normalised mean bias error, fraction of MeanKW
+	NMBE     float64 // normalised mean bias error, fraction of MeanKW; negative when the model predicts more than was measured
 	CVRMSE   float64 // coefficient of variation of the RMSE, fraction of MeanKW
 	MaxAbs   float64 // largest |predicted − measured|, kW
 }
 
 // Calibrate compares a run's predicted input with the measured kW of each
-// step. NMBE and CV(RMSE) follow ASHRAE Guideline 14 (from memory: with
-// n − 1 degrees of freedom, as fractions of the mean measured value).
-func Calibrate(run Run, steps []Step) Calibration {
+// step. NMBE and CV(RMSE) follow ASHRAE Guideline 14 (from memory), with y
+// measured, ŷ predicted, ȳ the measured mean and one model parameter
+// (n − 1 degrees of freedom):
+//
+//	NMBE     = Σ(y − ŷ) / ((n − 1)·ȳ)
+//	CV(RMSE) = √(Σ(y − ŷ)² / (n − 1)) / ȳ
+//
+// so a model that predicts more than was measured has a negative NMBE.
+func Calibrate(run optimize.Run, steps []optimize.Step) Calibration {
 	c := Calibration{Strategy: run.Name}
 	var sumM, sumE, sumE2 float64
 	for i, st := range steps {
-		if math.IsNaN(st.MeasuredKW) || run.Points[i].Status != Served {
+		if math.IsNaN(st.MeasuredKW) || run.Points[i].Status != optimize.Served {
 			continue
 		}
 		pred := float64(run.Points[i].Power) / curves.KW
@@ -42,8 +49,20 @@ func Calibrate(run Run, steps []Step) Calibration {
 	c.MeanKW = sumM / n
 	c.MeanErr = sumE / n
 	if c.MeanKW > 0 {
-		c.NMBE = sumE / ((n - 1) * c.MeanKW)
+		c.NMBE = -sumE / ((n - 1) * c.MeanKW)
 		c.CVRMSE = math.Sqrt(sumE2/(n-1)) / c.MeanKW
 	}
 	return c
+}
+
+// Guideline 14 hourly calibration criteria (ASHRAE Guideline 14, from
+// memory): |NMBE| ≤ 10 %, CV(RMSE) ≤ 30 %.
+const (
+	MaxHourlyNMBE   = 0.10
+	MaxHourlyCVRMSE = 0.30
+)
+
+// Calibrated reports whether the comparison meets the hourly criteria.
+func (c Calibration) Calibrated() bool {
+	return math.Abs(c.NMBE) <= MaxHourlyNMBE && c.CVRMSE <= MaxHourlyCVRMSE
 }

@@ -1,61 +1,41 @@
-package optimize
+package study
 
 import (
 	"wattstage/curves"
 	"wattstage/plant"
 )
 
-// ScaledLoss wraps a drive and scales every loss between shaft and wire by
-// Factor (1 = unchanged), to test how savings depend on the motor and drive
-// defaults.
-type ScaledLoss struct {
-	Drive  curves.Drive
-	Factor float64
-}
-
-var _ curves.Drive = ScaledLoss{}
-
-func (d ScaledLoss) Variable() bool   { return d.Drive.Variable() }
-func (d ScaledLoss) Describe() string { return d.Drive.Describe() }
-func (d ScaledLoss) Electrical(m curves.Motor, shaft curves.Power, speed float64) curves.Power {
-	return shaft + curves.Power(d.Factor*float64(d.Drive.Electrical(m, shaft, speed)-shaft))
-}
-func (d ScaledLoss) Input(m curves.Motor, shaft curves.Power, speed float64) curves.Chain {
-	c := d.Drive.Input(m, shaft, speed)
-	loss := float64(c.Electrical - c.Shaft)
-	c.Electrical = c.Shaft + curves.Power(d.Factor*loss)
-	if c.MotorEff > 0 && c.DriveEff > 0 {
-		// Keep the split's proportions: scale each loss share alike.
-		motorLoss := float64(shaft)/c.MotorEff - float64(shaft)
-		motorIn := float64(shaft) + d.Factor*motorLoss
-		c.MotorEff = float64(shaft) / motorIn
-		c.DriveEff = motorIn / float64(c.Electrical)
-	}
-	return c
-}
-
 // Sensitivity describes one variant of the plant for the savings range.
 type Sensitivity struct {
 	Label        string
-	ControlScale float64 // control head (or static head) multiplied by this
-	LossScale    float64 // motor and drive losses multiplied by this
+	ControlScale float64 // control head (or static head) multiplied by this; 1 = as given
+	LossScale    float64 // motor and drive losses multiplied by this; 1 = as given
 }
 
-// DefaultSensitivities are the cases of the savings range: the
-// control head and the motor/drive losses moved by ±25 %, the spread of
-// setpoints seen on site and of part-load loss data (common practice; the
-// bounds are stated in every report).
+// DefaultSensitivities are the cases of the savings range: the control
+// head (static head on a fixed curve) and the motor-plus-drive losses, each
+// moved by ±25 % on its own, the spread of setpoints seen on site and of
+// part-load loss data (common practice; the bounds are stated in every
+// report). One at a time, because savings need not move the same way with
+// both: on a plant already on drives, a higher and a lower control head can
+// both widen the gap between two sequences.
 var DefaultSensitivities = []Sensitivity{
-	{Label: "control head and losses +25 %", ControlScale: 1.25, LossScale: 1.25},
-	{Label: "control head and losses −25 %", ControlScale: 0.75, LossScale: 0.75},
+	{Label: "control head +25 %", ControlScale: 1.25, LossScale: 1},
+	{Label: "control head −25 %", ControlScale: 0.75, LossScale: 1},
+	{Label: "motor and drive losses +25 %", ControlScale: 1, LossScale: 1.25},
+	{Label: "motor and drive losses −25 %", ControlScale: 1, LossScale: 0.75},
 }
 
-// Vary returns a copy of the plant with the sensitivity applied.
+// Vary returns a copy of the plant with the sensitivity applied: every
+// unit's losses (drive and motor, across-the-line units too) scaled by
+// LossScale, and the control head (or static head) by ControlScale, capped
+// at the design head. Strategies built on the copy — the fixed-speed and
+// partial-retrofit variants included — keep the scale (curves.Rewire).
 func Vary(p *plant.Plant, s Sensitivity) *plant.Plant {
 	q := *p
 	q.Models = append([]plant.Model(nil), p.Models...)
 	for i := range q.Models {
-		q.Models[i].Drive = ScaledLoss{Drive: q.Models[i].Drive, Factor: s.LossScale}
+		q.Models[i].Drive = curves.ScaledLoss{Drive: q.Models[i].Drive, Factor: s.LossScale}
 	}
 	switch sys := p.System.(type) {
 	case curves.DPControl:

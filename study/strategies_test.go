@@ -1,4 +1,4 @@
-package optimize_test
+package study_test
 
 import (
 	"math"
@@ -8,6 +8,7 @@ import (
 	"wattstage/optimize"
 	"wattstage/plant"
 	"wattstage/profile"
+	"wattstage/study"
 )
 
 // examplePlanSteps loads an example plant and its profile as steps.
@@ -42,11 +43,11 @@ func TestLowestNeverBeaten(t *testing.T) {
 			if testing.Short() && len(steps) > 1000 {
 				steps = steps[:1000]
 			}
-			ks := optimize.Strategies(p)
+			ks := study.Strategies(p, nil)
 			lowest := ks[0].Strategy.Run(steps)
 			for _, k := range ks[1:] {
 				run := k.Strategy.Run(steps)
-				sameEquipment := k.Key == optimize.KeyCommon || k.Key == optimize.KeyCurrent
+				sameEquipment := k.Key == study.KeyCommon || k.Key == study.KeyCurrent
 				worst := 0.0
 				for i := range steps {
 					lo, o := lowest.Points[i], run.Points[i]

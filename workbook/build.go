@@ -73,6 +73,9 @@ func checkReport(r *Report) error {
 	if strings.TrimSpace(r.Plant) == "" {
 		return fmt.Errorf("%w: no plant name", ErrInvalidReport)
 	}
+	if len(r.Cautions) == 0 {
+		return fmt.Errorf("%w: no cautions: a workbook whose results can be acted on must show them", ErrInvalidReport)
+	}
 	if r.Units.Flow == "" || r.Units.Head == "" {
 		return fmt.Errorf("%w: units: flow and head labels are required", ErrInvalidReport)
 	}

@@ -37,7 +37,7 @@
 //	energy cost = kWh × EnergyPrice × price factor
 //	demand cost = billed kW·month × DemandCharge
 //	saved       = cost_b − cost
-//	investment  = drives × DriveCost + OtherCost   (0 without drives)
+//	investment  = drives × DriveCost + OtherCost   (0 for the baseline)
 //	payback     = investment / saved               (when saved > 0)
 //	NPV         = saved × UPV* − investment
 //

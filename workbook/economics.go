@@ -27,7 +27,7 @@ type StrategyEconomics struct {
 	EnergySaved  float64 // kWh/yr against the baseline
 	CostSaved    float64 // currency/yr against the baseline
 	Drives       int     // drives bought
-	Investment   float64 // currency = Drives × DriveCost + OtherCost if Drives > 0
+	Investment   float64 // currency = Drives × DriveCost + OtherCost; 0 for the baseline
 	Payback      float64 // simple payback, years; valid only when HasSaving
 	HasSaving    bool    // CostSaved > 0
 	NPV          float64 // currency = CostSaved × PVFactor − Investment
@@ -67,7 +67,7 @@ func ComputeEconomics(r *Report) (Economics, error) {
 	}
 	in := r.Economics
 	e := Economics{PVFactor: PVFactor(in.DiscountRate, in.Escalation, in.LifeYears)}
-	for _, s := range r.Strategies {
+	for i, s := range r.Strategies {
 		se := StrategyEconomics{
 			Name:         s.Name,
 			EnergyKWh:    s.EnergyKWh,
@@ -79,7 +79,9 @@ func ComputeEconomics(r *Report) (Economics, error) {
 		se.EnergyCost = se.EnergyKWh * in.EnergyPrice * se.PriceFactor
 		se.DemandCost = se.BilledDemand * in.DemandCharge
 		se.TotalCost = se.EnergyCost + se.DemandCost
-		if se.Drives > 0 {
+		if i != r.Baseline {
+			// Programming and commissioning come with any change of
+			// operation, drives bought or not.
 			se.Investment = float64(se.Drives)*in.DriveCost + in.OtherCost
 		}
 		se.Emissions = se.EnergyKWh * in.EmissionsFactor / 1000

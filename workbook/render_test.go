@@ -38,7 +38,7 @@ func TestRenderSummaryAndCurves(t *testing.T) {
 	}
 	summary := pages[find("Pump group plan: ")]
 	flat := strings.Join(strings.Fields(summary), " ")
-	for _, c := range workbook.DefaultCautions {
+	for _, c := range r.Cautions {
 		words := strings.Fields(c)
 		if !strings.Contains(flat, strings.Join(words[:6], " ")) {
 			t.Errorf("Summary page lacks the caution %q", c)

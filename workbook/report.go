@@ -13,7 +13,7 @@ type Report struct {
 	Date     string // report date as the user should see it, e.g. "2025-03-14"; also stored as the document date. Empty = no date shown, fixed document date
 	Units    Units  // unit labels for every quantity
 
-	Cautions    []string // safety and responsibility cautions shown at the top of the Summary; empty = DefaultCautions
+	Cautions    []string // safety and responsibility cautions shown at the top of the Summary; required (the caller owns their wording)
 	Assumptions []string // every default or assumption that was used, in plain words
 	Notes       []string // other remarks (warnings from the solver, data quality)
 
@@ -151,7 +151,7 @@ type Strategy struct {
 	// Economics sheet keeps the ratio of the two as a price factor, so a new
 	// energy price scales the cost as the tariff would.
 	EnergyCost  float64
-	DrivesToBuy int     // drives this strategy needs bought; bears DriveCost each and OtherCost once
+	DrivesToBuy int     // drives this strategy needs bought; bears DriveCost each; every strategy but the baseline bears OtherCost once
 	HoursUnmet  float64 // hours per year the strategy cannot serve the load, h/yr
 }
 
@@ -231,7 +231,7 @@ type EconomicsInputs struct {
 	EnergyPrice     float64 // currency/kWh
 	DemandCharge    float64 // currency per kW·month
 	DriveCost       float64 // installed cost per drive, currency
-	OtherCost       float64 // other one-off retrofit cost, currency (applied once to a strategy that buys drives)
+	OtherCost       float64 // other one-off retrofit cost, currency (applied once to every strategy but the baseline)
 	LifeYears       int     // appraisal life, years; ≥ 1
 	DiscountRate    float64 // real discount rate, fraction per year (0.05 = 5 %)
 	Escalation      float64 // energy price escalation, fraction per year

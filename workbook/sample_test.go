@@ -32,6 +32,7 @@ func sampleReport() *Report {
 		Subtitle: "Chilled-water secondary group: two large and one small pump, DP control at the far riser",
 		Date:     "2025-03-14",
 		Units:    Units{System: "US", Flow: "gpm", Head: "ft", Pressure: "psi", MotorPower: "hp", Speed: "rpm", Currency: "$"},
+		Cautions: sampleCautions,
 		Assumptions: []string{
 			"Motor part-load efficiency from the DOE appendix A loss factor (default).",
 			"Drive losses from the DOE appendix A motor-and-drive factor for P3 (default; no drive data given).",
@@ -323,4 +324,12 @@ func groupKW(set []unitRun) float64 {
 		kw += u.kw
 	}
 	return kw
+}
+
+// sampleCautions stand in for the caller's cautions (the study's, in the
+// tool): planning estimates, manufacturers' limits, the licensed engineer.
+var sampleCautions = []string{
+	"Sample caution: these figures are planning estimates, not measured performance.",
+	"Sample caution: confirm minimum flow, NPSH, motor cooling at low speed and resonance with the manufacturers.",
+	"Sample caution: sequences and retrofits are the responsibility of a licensed engineer under local codes.",
 }

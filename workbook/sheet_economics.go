@@ -123,7 +123,7 @@ func (b *book) economicsSheet() {
 	for _, line := range []string{
 		"Energy cost = annual energy × EnergyPrice × price factor. The price factor carries a time-of-use tariff's weighting (1 for a flat price), so a new energy price scales the cost as the tariff would.",
 		"Demand cost = billed demand × DemandCharge; billed demand is the sum of the monthly peaks (12 × the annual peak when no monthly peaks were given).",
-		"Savings are against the baseline, " + b.r.Strategies[b.r.Baseline].Name + ". Investment = drives to buy × DriveCost + OtherCost, for a strategy that buys drives.",
+		"Savings are against the baseline, " + b.r.Strategies[b.r.Baseline].Name + ". Investment = drives to buy × DriveCost + OtherCost, for every strategy but the baseline (programming and commissioning come with any change of operation).",
 		"Simple payback = investment ÷ cost saved. NPV = cost saved × PVFactor − investment, where PVFactor is the modified uniform present value factor of NIST Handbook 135: Σ ((1+e)/(1+d))^t over the life, e the escalation and d the real discount rate.",
 		"Maintenance, drive replacement, harmonics mitigation and incentives are not included; add them to OtherCost or adjust the result.",
 	} {
@@ -181,7 +181,10 @@ func (b *book) econMetrics(cur string) []econMetric {
 			func(se StrategyEconomics) Value { return num(se.CostSaved) }},
 		{ekInvestment, "Investment (" + cur + ")", "int",
 			func(c int) string {
-				return fmt.Sprintf("IF(%s>0,%s*DriveCost+OtherCost,0)", at(ekDrives, c), at(ekDrives, c))
+				if c == econCol(b.r.Baseline) {
+					return "0"
+				}
+				return fmt.Sprintf("%s*DriveCost+OtherCost", at(ekDrives, c))
 			},
 			func(se StrategyEconomics) Value { return num(se.Investment) }},
 		{ekPayback, "Simple payback (years)", "d1",

@@ -7,16 +7,6 @@ import (
 
 const sheetSummary = "Summary"
 
-// DefaultCautions are shown on the Summary when a Report gives none. They
-// follow the cautions the project's domain notes require (planning
-// estimates; manufacturers' limits; licensed engineer under local codes).
-var DefaultCautions = []string{
-	"These figures are planning estimates computed from the stated pump curves, defaults and load profile; they are not measured performance.",
-	"Pump, motor and drive limits come from their manufacturers. Before a sequence is changed, confirm with them the minimum flow and minimum speed of each pump, the NPSH margin against cavitation, motor cooling at low speed and any resonance at the new speeds.",
-	"Confirm the minimum flow of every chiller and boiler, and the bypass that holds it, with their manufacturers.",
-	"Sequences and retrofits are the responsibility of a licensed engineer under local codes; code checks here follow the user's code edition and must be verified locally.",
-}
-
 // Summary rows not read straight from an Economics metric.
 const (
 	smSavedShare = -1 // energy saved as a share of the baseline's, by formula
@@ -50,11 +40,7 @@ func (b *book) summarySheet() {
 	row += 2
 
 	s.text(1, row, "Cautions", "h2")
-	cautions := r.Cautions
-	if len(cautions) == 0 {
-		cautions = DefaultCautions
-	}
-	for _, c := range cautions {
+	for _, c := range r.Cautions {
 		row++
 		s.merged(row, 1, last, c, "caution")
 	}

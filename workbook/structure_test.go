@@ -1,6 +1,7 @@
 package workbook
 
 import (
+	"errors"
 	"archive/zip"
 	"bytes"
 	"fmt"
@@ -199,11 +200,18 @@ func BenchmarkBytes(b *testing.B) {
 	}
 }
 
-// TestMinimalReport: a Report with one strategy and nothing else still
-// makes a workbook, with "None given." where sections are empty.
+// TestMinimalReport: a Report with one strategy and its cautions and
+// nothing else still makes a workbook, with "None given." where sections
+// are empty; without cautions it is refused.
 func TestMinimalReport(t *testing.T) {
+	bare := &Report{Plant: "Bare plant", Units: Units{Flow: "m³/h", Head: "m"}, Strategies: []Strategy{{Name: "As found"}},
+		Economics: EconomicsInputs{LifeYears: 1}}
+	if _, err := Bytes(bare); !errors.Is(err, ErrInvalidReport) || !strings.Contains(err.Error(), "cautions") {
+		t.Errorf("a report without cautions: %v, want ErrInvalidReport naming the cautions", err)
+	}
 	r := &Report{
 		Plant:      "Bare plant",
+		Cautions:   sampleCautions,
 		Units:      Units{Flow: "m³/h", Head: "m", Currency: "EUR"},
 		Strategies: []Strategy{{Name: "As found", EnergyKWh: 1000, PeakKW: 1}},
 		Economics:  EconomicsInputs{EnergyPrice: 0.2, LifeYears: 1},

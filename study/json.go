@@ -1,0 +1,365 @@
+package study
+
+import (
+	"bufio"
+	"encoding/json"
+	"io"
+	"math"
+	"time"
+
+	"wattstage/optimize"
+)
+
+// SchemaVersion is the version of the plan JSON (docs/plan-json.md). It
+// changes when a key is removed or its meaning changes; added keys keep it.
+const SchemaVersion = 1
+
+// JSON is the plan's JSON document: the Result in the plant's display
+// units, snake_case keys, null for a value that does not exist.
+type JSON struct {
+	SchemaVersion  int            `json:"schema_version"`
+	Plant          string         `json:"plant"`
+	Units          JSONUnits      `json:"units"`
+	Profile        JSONProfile    `json:"profile"`
+	Period         JSONPeriod     `json:"period"`
+	Baseline       string         `json:"baseline"`
+	Appraised      bool           `json:"appraised"`
+	Strategies     []JSONStrategy `json:"strategies"`
+	SavingsRange   *JSONRange     `json:"savings_range"`
+	Checks         JSONChecks     `json:"checks"`
+	Recommendation string         `json:"recommendation"`
+	Warnings       []Warning      `json:"warnings"`
+	Cautions       []string       `json:"cautions"`
+}
+
+// JSONUnits names the unit of every quantity in the document.
+type JSONUnits struct {
+	Flow      string `json:"flow"`
+	Head      string `json:"head"`
+	Power     string `json:"power"`
+	Energy    string `json:"energy"`
+	Currency  string `json:"currency"`
+	Emissions string `json:"emissions"`
+}
+
+// JSONProfile says what the steps were.
+type JSONProfile struct {
+	Kind         string   `json:"kind"` // "bins", "trend" (every interval) or "trend_bins"
+	Source       string   `json:"source"`
+	Steps        int      `json:"steps"`
+	LoadBinWidth *float64 `json:"load_bin_width"` // flow groups of the load points; null when each step is a point
+}
+
+// JSONPeriod is what the profile covers.
+type JSONPeriod struct {
+	Start               *time.Time `json:"start"`
+	End                 *time.Time `json:"end"`
+	Hours               float64    `json:"hours"`
+	CoveredHours        float64    `json:"covered_hours"`
+	AnnualisationFactor float64    `json:"annualisation_factor"`
+}
+
+// JSONStrategy is one strategy.
+type JSONStrategy struct {
+	Key                string          `json:"key"`
+	Name               string          `json:"name"`
+	Note               string          `json:"note"`
+	Drives             int             `json:"drives"`
+	DrivesAdded        int             `json:"drives_added"`
+	PeriodKWh          float64         `json:"period_kwh"`
+	PeriodEnergyCost   float64         `json:"period_energy_cost"`
+	PeriodHoursUnmet   float64         `json:"period_hours_unmet"`
+	AnnualKWh          float64         `json:"annual_kwh"`
+	AnnualEnergyCost   float64         `json:"annual_energy_cost"`
+	AnnualDemandCost   float64         `json:"annual_demand_cost"`
+	AnnualCost         float64         `json:"annual_cost"`
+	AnnualEmissionsKg  float64         `json:"annual_emissions_kg"`
+	AnnualBilledDemand float64         `json:"annual_billed_demand_kw_months"`
+	PeakKW             float64         `json:"peak_kw"`
+	StageChanges       *int            `json:"stage_changes"`
+	Savings            *JSONSavings    `json:"savings"`
+	Appraisal          *JSONAppraisal  `json:"appraisal"`
+	LoadPoints         []JSONLoadPoint `json:"load_points"`
+}
+
+// JSONSavings are a year's savings against the baseline.
+type JSONSavings struct {
+	AnnualKWh         float64 `json:"annual_kwh"`
+	AnnualEnergyCost  float64 `json:"annual_energy_cost"`
+	AnnualDemandCost  float64 `json:"annual_demand_cost"`
+	AnnualCost        float64 `json:"annual_cost"`
+	AnnualEmissionsKg float64 `json:"annual_emissions_kg"`
+	Share             float64 `json:"share_of_baseline_energy"`
+}
+
+// JSONAppraisal is the appraisal of a strategy's investment.
+type JSONAppraisal struct {
+	Investment         float64  `json:"investment"`
+	AnnualSavings      float64  `json:"annual_savings"`
+	SimplePaybackYears *float64 `json:"simple_payback_years"`
+	DiscountedPayback  *float64 `json:"discounted_payback_years"`
+	PresentValueFactor float64  `json:"present_value_factor"`
+	PresentSavings     float64  `json:"present_savings"`
+	NPV                float64  `json:"npv"`
+	SIR                *float64 `json:"sir"`
+	LifeYears          int      `json:"life_years"`
+	DiscountRate       float64  `json:"discount_rate"`
+	Escalation         float64  `json:"escalation"`
+}
+
+// JSONLoadPoint is one load point over the period.
+type JSONLoadPoint struct {
+	Flow         float64  `json:"flow"`
+	FlowLow      float64  `json:"flow_low"`
+	FlowHigh     float64  `json:"flow_high"`
+	Steps        int      `json:"steps"`
+	Hours        float64  `json:"hours"`
+	HoursUnmet   float64  `json:"hours_unmet"`
+	KW           float64  `json:"kw"`
+	KWh          float64  `json:"kwh"`
+	Cost         float64  `json:"cost"`
+	UnitsRunning int      `json:"units_running"`
+	HeaderHead   *float64 `json:"header_head"`
+	RequiredHead *float64 `json:"required_head"`
+	Limit        string   `json:"limit"`
+}
+
+// JSONRange is the savings range.
+type JSONRange struct {
+	Expected float64         `json:"expected_kwh"`
+	Low      float64         `json:"low_kwh"`
+	High     float64         `json:"high_kwh"`
+	LowCost  float64         `json:"low_cost"`
+	HighCost float64         `json:"high_cost"`
+	LowBy    string          `json:"low_set_by"`
+	HighBy   string          `json:"high_set_by"`
+	Cases    []JSONRangeCase `json:"cases"`
+}
+
+// JSONRangeCase is one case of the savings range.
+type JSONRangeCase struct {
+	Case             string  `json:"case"`
+	ControlHeadScale float64 `json:"control_head_scale"`
+	LossScale        float64 `json:"loss_scale"`
+	BaselineKWh      float64 `json:"baseline_annual_kwh"`
+	LowestKWh        float64 `json:"lowest_annual_kwh"`
+	SavedKWh         float64 `json:"saved_annual_kwh"`
+	SavedCost        float64 `json:"saved_annual_cost"`
+}
+
+// JSONChecks are the checks.
+type JSONChecks struct {
+	PartLoad    []JSONPartLoad   `json:"part_load"`
+	OneUnitOut  *JSONUnitOut     `json:"one_unit_out"`
+	Calibration *JSONCalibration `json:"calibration"`
+	Binning     *JSONBinning     `json:"binning"`
+}
+
+// JSONPartLoad is one ASHRAE 90.1 §6.5.4.2 style check.
+type JSONPartLoad struct {
+	Strategy string   `json:"strategy"`
+	DesignKW *float64 `json:"design_kw"`
+	HalfKW   *float64 `json:"half_flow_kw"`
+	Ratio    *float64 `json:"ratio"`
+	Limit    float64  `json:"limit"`
+	Pass     *bool    `json:"pass"`
+	Note     string   `json:"note"`
+}
+
+// JSONUnitOut is the one-unit-out check.
+type JSONUnitOut struct {
+	Removed      string    `json:"removed_model"`
+	ServesDesign bool      `json:"serves_design_flow"`
+	MaxFlow      float64   `json:"max_flow"`
+	HeadAtMax    float64   `json:"head_at_max_flow"`
+	MotorLoads   []float64 `json:"motor_loads_at_max"`
+}
+
+// JSONCalibration is predicted against logged power.
+type JSONCalibration struct {
+	Strategy   string  `json:"strategy"`
+	N          int     `json:"intervals"`
+	MeanKW     float64 `json:"mean_logged_kw"`
+	MeanErr    float64 `json:"mean_error_kw"`
+	NMBE       float64 `json:"nmbe"`
+	CVRMSE     float64 `json:"cv_rmse"`
+	MaxAbs     float64 `json:"largest_error_kw"`
+	Calibrated bool    `json:"meets_hourly_criteria"`
+}
+
+// JSONBinning compares every interval with bins.
+type JSONBinning struct {
+	Width     float64 `json:"bin_width"`
+	Bins      int     `json:"bins"`
+	EveryKWh  float64 `json:"every_interval_annual_kwh"`
+	BinnedKWh float64 `json:"binned_annual_kwh"`
+	CubeError float64 `json:"cube_law_error_estimate"`
+}
+
+// JSONStep is one step of one strategy, written only with the detail.
+type JSONStep struct {
+	Record   string     `json:"record"` // "step"
+	Strategy string     `json:"strategy"`
+	Time     *time.Time `json:"time"`
+	Flow     float64    `json:"flow"`
+	Hours    float64    `json:"hours"`
+	Status   string     `json:"status"`
+	Counts   []int      `json:"counts"`
+	Speeds   []float64  `json:"speeds"`
+	Head     float64    `json:"header_head"`
+	KW       float64    `json:"kw"`
+	Cost     float64    `json:"cost"`
+	Limit    string     `json:"limit"`
+}
+
+// finite returns v, or nil for NaN and ±Inf (JSON has neither).
+func finite(v float64) *float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return nil
+	}
+	return &v
+}
+
+// Document builds the JSON document.
+func (r *Result) Document() JSON {
+	p := r.Plant
+	u := p.Units
+	d := JSON{SchemaVersion: SchemaVersion, Plant: p.Name, Baseline: r.BaselineStrategy().Key, Appraised: r.Appraised,
+		Units:          JSONUnits{Flow: u.FlowUnit(), Head: u.HeadUnit(), Power: "kW", Energy: "kWh", Currency: r.Currency(), Emissions: "kg CO₂e"},
+		Recommendation: r.Recommendation, Warnings: append([]Warning{}, r.Warnings...), Cautions: r.Cautions}
+	d.Profile = JSONProfile{Kind: "bins", Source: p.Source, Steps: len(r.Steps)}
+	if r.Trend != nil {
+		d.Profile.Kind, d.Profile.Source = "trend", r.Trend.Name
+		if r.Binned != nil {
+			d.Profile.Kind = "trend_bins"
+		}
+	}
+	if r.LoadBinWidth > 0 {
+		d.Profile.LoadBinWidth = finite(u.FlowOut(r.LoadBinWidth))
+	}
+	pd := r.Period
+	d.Period = JSONPeriod{Hours: pd.Hours, CoveredHours: pd.CoveredHours, AnnualisationFactor: pd.Factor}
+	if pd.Timed {
+		s, e := pd.Start, pd.End
+		d.Period.Start, d.Period.End = &s, &e
+	}
+	for _, s := range r.Strategies {
+		d.Strategies = append(d.Strategies, r.strategyJSON(s))
+	}
+	if g := r.Range; g != nil {
+		jr := &JSONRange{Expected: r.Strategy(KeyLowest).Savings.Energy, Low: g.Low, High: g.High, LowCost: g.LowCost,
+			HighCost: g.HighCost, LowBy: g.LowBy, HighBy: g.HighBy}
+		for _, c := range g.Cases {
+			jr.Cases = append(jr.Cases, JSONRangeCase{Case: c.Sensitivity.Label, ControlHeadScale: c.Sensitivity.ControlScale,
+				LossScale: c.Sensitivity.LossScale, BaselineKWh: c.BaselineKWh, LowestKWh: c.LowestKWh, SavedKWh: c.SavedKWh, SavedCost: c.SavedCost})
+		}
+		d.SavingsRange = jr
+	}
+	d.Checks = r.checksJSON()
+	return d
+}
+
+func (r *Result) strategyJSON(s Strategy) JSONStrategy {
+	u := r.Plant.Units
+	a := s.Annual
+	js := JSONStrategy{Key: s.Key, Name: s.Name, Note: s.Note, Drives: s.Drives, DrivesAdded: s.DrivesAdded,
+		PeriodKWh: s.Energy.KWh, PeriodEnergyCost: s.Bill.EnergyCost, PeriodHoursUnmet: s.Energy.HoursUnmet,
+		AnnualKWh: a.Energy, AnnualEnergyCost: a.EnergyCost, AnnualDemandCost: a.DemandCost, AnnualCost: a.Total,
+		AnnualEmissionsKg: a.Emissions, AnnualBilledDemand: a.BilledDemand, PeakKW: s.Energy.PeakKW,
+		LoadPoints: []JSONLoadPoint{}}
+	if r.Period.Timed {
+		n := s.Energy.Changes
+		js.StageChanges = &n
+	}
+	if sv := s.Savings; sv != nil {
+		js.Savings = &JSONSavings{AnnualKWh: sv.Energy, AnnualEnergyCost: sv.EnergyCost, AnnualDemandCost: sv.DemandCost,
+			AnnualCost: sv.Cost, AnnualEmissionsKg: sv.Emissions, Share: sv.Share(r.BaselineStrategy())}
+	}
+	if ap := s.Appraisal; ap != nil {
+		t := r.Plant.Retrofit
+		js.Appraisal = &JSONAppraisal{Investment: ap.Investment, AnnualSavings: ap.AnnualSavings,
+			SimplePaybackYears: finite(ap.SimplePayback), DiscountedPayback: finite(ap.DiscountedPayback),
+			PresentValueFactor: ap.UPV, PresentSavings: ap.PresentSavings, NPV: ap.NPV, SIR: finite(ap.SIR),
+			LifeYears: t.LifeYears, DiscountRate: t.DiscountRate, Escalation: t.Escalation}
+		if ap.Investment == 0 && ap.AnnualSavings <= 0 {
+			js.Appraisal.SIR = nil
+		}
+	}
+	for _, lp := range s.LoadPoints {
+		jl := JSONLoadPoint{Flow: u.FlowOut(lp.Flow), FlowLow: u.FlowOut(lp.Low), FlowHigh: u.FlowOut(lp.High), Steps: lp.Steps,
+			Hours: lp.Hours, HoursUnmet: lp.HoursUnmet, KW: lp.KW, KWh: lp.KWh, Cost: lp.Cost,
+			UnitsRunning: lp.State.Running(), Limit: string(lp.State.Limit)}
+		if lp.State.Status == optimize.Served {
+			jl.HeaderHead = finite(u.HeadOut(lp.State.HeaderHead))
+			jl.RequiredHead = finite(u.HeadOut(lp.State.RequiredHead))
+		}
+		js.LoadPoints = append(js.LoadPoints, jl)
+	}
+	return js
+}
+
+func (r *Result) checksJSON() JSONChecks {
+	u := r.Plant.Units
+	c := JSONChecks{PartLoad: []JSONPartLoad{}}
+	for _, pl := range r.PartLoad {
+		j := JSONPartLoad{Strategy: pl.Label, Limit: pl.Limit, Note: pl.Note}
+		if pl.DesignKW > 0 {
+			pass := pl.Pass
+			j.DesignKW, j.HalfKW, j.Ratio, j.Pass = finite(pl.DesignKW), finite(pl.HalfKW), finite(pl.Ratio), &pass
+		}
+		c.PartLoad = append(c.PartLoad, j)
+	}
+	if uo := r.UnitOut; uo != nil {
+		j := &JSONUnitOut{Removed: uo.Removed, ServesDesign: uo.ServesDesign, MaxFlow: u.FlowOut(uo.MaxFlow),
+			HeadAtMax: u.HeadOut(uo.AtMax.HeaderHead), MotorLoads: []float64{}}
+		for _, un := range uo.AtMax.Units {
+			j.MotorLoads = append(j.MotorLoads, un.Load)
+		}
+		c.OneUnitOut = j
+	}
+	if cl := r.Calibration; cl != nil {
+		c.Calibration = &JSONCalibration{Strategy: cl.Strategy, N: cl.N, MeanKW: cl.MeanKW, MeanErr: cl.MeanErr, NMBE: cl.NMBE,
+			CVRMSE: cl.CVRMSE, MaxAbs: cl.MaxAbs, Calibrated: cl.Calibrated()}
+	}
+	if b := r.Binning; b != nil {
+		c.Binning = &JSONBinning{Width: u.FlowOut(b.Width), Bins: b.Bins, EveryKWh: b.EveryKWh, BinnedKWh: b.BinnedKWh, CubeError: b.CubeError}
+	}
+	return c
+}
+
+// WriteJSON writes the document, indented. With detail it writes JSON
+// Lines instead: the document on the first line, then one "step" record
+// per step of each strategy, streamed as it is encoded, so that a long
+// trend never sits in memory as text.
+func (r *Result) WriteJSON(w io.Writer, detail bool) error {
+	if !detail {
+		enc := json.NewEncoder(w)
+		enc.SetIndent("", "  ")
+		return enc.Encode(r.Document())
+	}
+	bw := bufio.NewWriter(w)
+	enc := json.NewEncoder(bw)
+	if err := enc.Encode(r.Document()); err != nil {
+		return err
+	}
+	u := r.Plant.Units
+	for _, s := range r.Strategies {
+		for i, st := range r.Steps {
+			res := s.Run.Points[i]
+			js := JSONStep{Record: "step", Strategy: s.Key, Flow: u.FlowOut(st.Load), Hours: st.Hours, Status: res.Status.String(),
+				Counts: res.Counts, Speeds: []float64{}, Head: u.HeadOut(res.HeaderHead), KW: s.Energy.KW[i],
+				Cost: s.Bill.SampleCost[i], Limit: string(res.Limit)}
+			if st.Timed() {
+				t := st.Time
+				js.Time = &t
+			}
+			for _, un := range res.Units {
+				js.Speeds = append(js.Speeds, un.Speed)
+			}
+			if err := enc.Encode(js); err != nil {
+				return err
+			}
+		}
+	}
+	return bw.Flush()
+}

@@ -1,0 +1,68 @@
+package study
+
+import (
+	"wattstage/econ"
+	"wattstage/optimize"
+)
+
+// rangeCase re-runs the lowest-power staging and the baseline on the plant
+// varied by one sensitivity, priced and brought to a year as the expected
+// case is. Both strategies are built on the same varied plant, so the
+// losses of across-the-line motors in a fixed-speed baseline move with the
+// drives' (curves.Rewire).
+func (r *Result) rangeCase(s Sensitivity, base string) (RangeCase, error) {
+	v := Vary(r.Plant, s)
+	var lowest, baseline optimize.Strategy
+	var sp *optimize.Setpoints
+	if base == KeyDerived {
+		// The setpoints a study of the varied plant would derive.
+		sp, _ = optimize.DeriveSetpoints(v, optimize.SetpointOptions{})
+	}
+	for _, k := range Strategies(v, sp) {
+		switch k.Key {
+		case KeyLowest:
+			lowest = k.Strategy
+		case base:
+			baseline = k.Strategy
+		}
+	}
+	le := optimize.Sum(lowest.Run(r.Steps), r.Steps)
+	be := optimize.Sum(baseline.Run(r.Steps), r.Steps)
+	la, err := r.annual(le)
+	if err != nil {
+		return RangeCase{}, err
+	}
+	ba, err := r.annual(be)
+	if err != nil {
+		return RangeCase{}, err
+	}
+	return RangeCase{Sensitivity: s, BaselineKWh: ba.Energy, LowestKWh: la.Energy, SavedKWh: ba.Energy - la.Energy,
+		SavedCost: ba.Total - la.Total}, nil
+}
+
+// annual prices an energy series under the tariff and brings it to a year.
+func (r *Result) annual(e Energy) (econ.Annual, error) {
+	b, err := econ.Cost(r.Plant.Tariff, samples(e, r.Steps))
+	if err != nil {
+		return econ.Annual{}, err
+	}
+	return b.Annualise(r.Period.Factor), nil
+}
+
+// addRangeCase adds a case and widens the range to hold it. The range
+// starts at the expected case, so it always brackets it.
+func (r *Result) addRangeCase(rc RangeCase) {
+	lo := r.Strategy(KeyLowest)
+	if r.Range == nil {
+		sv := lo.Savings
+		r.Range = &Range{Low: sv.Energy, High: sv.Energy, LowCost: sv.Cost, HighCost: sv.Cost, LowBy: "as given", HighBy: "as given"}
+	}
+	g := r.Range
+	g.Cases = append(g.Cases, rc)
+	if rc.SavedKWh < g.Low {
+		g.Low, g.LowCost, g.LowBy = rc.SavedKWh, rc.SavedCost, rc.Sensitivity.Label
+	}
+	if rc.SavedKWh > g.High {
+		g.High, g.HighCost, g.HighBy = rc.SavedKWh, rc.SavedCost, rc.Sensitivity.Label
+	}
+}

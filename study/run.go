@@ -1,0 +1,215 @@
+package study
+
+import (
+	"fmt"
+
+	"wattstage/curves"
+	"wattstage/econ"
+	"wattstage/optimize"
+)
+
+// Energy is a strategy's energy over the period's steps.
+type Energy = optimize.Energy
+
+// Options set up a study. The zero value is the default study.
+type Options struct {
+	// Baseline is the key of the strategy savings are counted against;
+	// empty means DefaultBaseline.
+	Baseline string
+	// Sensitivities are the cases of the savings range; nil means
+	// DefaultSensitivities, an empty non-nil slice none.
+	Sensitivities []Sensitivity
+	// LoadBinWidth groups a trend's intervals into flow groups of this
+	// width for the load points and the binning check; 0 = 5 % of the
+	// design flow.
+	LoadBinWidth curves.Flow
+	// Progress, when set, is called before each long step (a strategy, a
+	// sensitivity case) with its label, its index and the number of steps.
+	Progress func(label string, i, n int)
+}
+
+// ErrBaseline is returned by Run when the chosen baseline is not one of
+// the plant's strategies.
+var ErrBaseline = fmt.Errorf("study: baseline")
+
+// Run runs the study: setpoints derived once, every strategy run once over
+// the steps and priced once, every load point and chart table built from
+// those runs, and every warning gathered with its origin.
+func Run(in *Input, opt Options) (*Result, error) {
+	p := in.Plant
+	r := &Result{Plant: p, Trend: in.Trend, Binned: in.Binned, Steps: in.Steps, Period: PeriodOf(in.Steps),
+		Appraised: p.HasRetrofit, Cautions: Cautions, Baseline: -1}
+	if r.Period.Factor == 0 {
+		return nil, fmt.Errorf("study: the profile covers no hours")
+	}
+	sp, err := optimize.DeriveSetpoints(p, optimize.SetpointOptions{})
+	if err != nil {
+		r.SetpointsError = err.Error()
+	} else {
+		r.Setpoints = sp
+	}
+	ks := Strategies(p, r.Setpoints)
+	base := opt.Baseline
+	if base == "" {
+		base = DefaultBaseline(p)
+	}
+	for i, k := range ks {
+		if k.Key == base {
+			r.Baseline = i
+		}
+	}
+	if r.Baseline < 0 {
+		var keys []string
+		for _, k := range ks {
+			keys = append(keys, k.Key)
+		}
+		return nil, fmt.Errorf("%w: no strategy %q (have %v)", ErrBaseline, base, keys)
+	}
+	sens := opt.Sensitivities
+	if sens == nil {
+		sens = DefaultSensitivities
+	}
+	if base == KeyLowest {
+		sens = nil
+	}
+	progress := func(label string, i int) {
+		if opt.Progress != nil {
+			opt.Progress(label, i, len(ks)+len(sens))
+		}
+	}
+	r.LoadBinWidth = loadBinWidth(in, opt.LoadBinWidth)
+	for i, k := range ks {
+		progress(k.Strategy.Name(), i)
+		s, err := r.runStrategy(k)
+		if err != nil {
+			return nil, err
+		}
+		r.Strategies = append(r.Strategies, s)
+	}
+	if err := r.compare(); err != nil {
+		return nil, err
+	}
+	for i, s := range sens {
+		progress("savings range: "+s.Label, len(ks)+i)
+		rc, err := r.rangeCase(s, base)
+		if err != nil {
+			return nil, err
+		}
+		r.addRangeCase(rc)
+	}
+	r.runChecks(ks)
+	r.GroupPower = groupPower(p, ks)
+	r.gatherWarnings(in)
+	r.Recommendation = recommendation(r)
+	return r, nil
+}
+
+// runStrategy runs one strategy over the steps and prices it.
+func (r *Result) runStrategy(k Keyed) (Strategy, error) {
+	run := k.Strategy.Run(r.Steps)
+	s := Strategy{Key: k.Key, Name: run.Name, Note: run.Note, Run: run, Drives: run.Drives,
+		Energy: optimize.Sum(run, r.Steps)}
+	bill, err := econ.Cost(r.Plant.Tariff, samples(s.Energy, r.Steps))
+	if err != nil {
+		return Strategy{}, err
+	}
+	s.Bill = bill
+	s.Annual = bill.Annualise(r.Period.Factor)
+	s.LoadPoints = loadPoints(r, run, s.Energy, bill)
+	return s, nil
+}
+
+// compare counts each strategy's savings against the baseline and
+// appraises its investment.
+func (r *Result) compare() error {
+	b := r.BaselineStrategy()
+	terms := r.Plant.Retrofit
+	for i := range r.Strategies {
+		s := &r.Strategies[i]
+		if i == r.Baseline {
+			continue
+		}
+		s.DrivesAdded = max(0, s.Drives-b.Drives)
+		s.Savings = &Savings{Energy: b.Annual.Energy - s.Annual.Energy, EnergyCost: b.Annual.EnergyCost - s.Annual.EnergyCost,
+			DemandCost: b.Annual.DemandCost - s.Annual.DemandCost, Emissions: b.Annual.Emissions - s.Annual.Emissions}
+		s.Savings.Cost = s.Savings.EnergyCost + s.Savings.DemandCost
+		if !r.Appraised {
+			continue
+		}
+		// Programming and commissioning (the other costs) come with any
+		// change of operation, drives bought or not.
+		invest := float64(s.DrivesAdded)*terms.DriveCost + terms.OtherCost
+		a, err := econ.AppraiseSavings(terms, s.Savings.EnergyCost, s.Savings.DemandCost, invest)
+		if err != nil {
+			return err
+		}
+		a.EnergySaved, a.EmissionsSaved = s.Savings.Energy, s.Savings.Emissions
+		s.Appraisal = a
+	}
+	return nil
+}
+
+// samples turns an energy series into tariff samples.
+func samples(e Energy, steps []optimize.Step) []econ.Sample {
+	out := make([]econ.Sample, len(steps))
+	for i, st := range steps {
+		out[i] = econ.Sample{Start: st.Time, Hours: st.Hours, Power: curves.Power(e.KW[i] * curves.KW)}
+	}
+	return out
+}
+
+// runChecks adds the part-load, one-unit-out, calibration and binning checks.
+func (r *Result) runChecks(ks []Keyed) {
+	p := r.Plant
+	if p.DesignFlow > 0 {
+		for _, k := range ks {
+			switch k.Key {
+			case KeyLowest:
+				r.PartLoad = append(r.PartLoad, CheckPartLoad("lowest-power staging", p, k.Strategy))
+			case KeyCurrent:
+				r.PartLoad = append(r.PartLoad, CheckPartLoad("current sequence", p, k.Strategy))
+			}
+		}
+	}
+	if uo, err := optimize.CheckUnitOut(p, optimize.Options{}); err == nil {
+		r.UnitOut = &uo
+	}
+	if r.Trend != nil && r.Trend.HasPower() {
+		s := r.Strategy(KeyCurrent)
+		if s == nil {
+			s = r.Strategy(KeyLowest)
+		}
+		if c := Calibrate(s.Run, r.Steps); c.N >= 2 {
+			r.Calibration = &c
+		}
+	}
+	if r.Trend != nil && r.Binned == nil && r.LoadBinWidth > 0 {
+		if b, err := r.Trend.Bin(r.LoadBinWidth); err == nil {
+			steps := optimize.StepsFromBinned(b)
+			e := optimize.Sum(ks[0].Strategy.Run(steps), steps)
+			r.Binning = &BinningCheck{Width: b.Width, Bins: len(b.Bins), CubeError: b.CubeError,
+				EveryKWh: r.Strategies[0].Annual.Energy, BinnedKWh: e.KWh * r.Period.Factor}
+		}
+	}
+}
+
+// loadBinWidth is the width of the flow groups of a trend solved interval
+// by interval; 0 when each step is its own load point.
+func loadBinWidth(in *Input, given curves.Flow) curves.Flow {
+	if in.Trend == nil || in.Binned != nil {
+		return 0
+	}
+	if given > 0 {
+		return given
+	}
+	top := in.Plant.DesignFlow
+	if top <= 0 {
+		for _, st := range in.Steps {
+			top = max(top, st.Load)
+		}
+	}
+	if top <= 0 {
+		return 0
+	}
+	return top / 20
+}

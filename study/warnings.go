@@ -1,0 +1,99 @@
+package study
+
+import (
+	"fmt"
+	"math"
+	"slices"
+
+	"wattstage/optimize"
+)
+
+// Sources of warnings that do not come from a file position.
+const (
+	SourceProfile   = "profile"
+	SourceTariff    = "tariff"
+	SourceStudy     = "study"
+	SourceSetpoints = "setpoints"
+)
+
+// warn adds a warning once.
+func (r *Result) warn(source, format string, args ...any) {
+	w := Warning{Source: source, Message: fmt.Sprintf(format, args...)}
+	if !slices.Contains(r.Warnings, w) {
+		r.Warnings = append(r.Warnings, w)
+	}
+}
+
+// gatherWarnings collects the loader's, the trend reader's, the tariff's
+// and the study's own warnings, in that order.
+func (r *Result) gatherWarnings(in *Input) {
+	p := r.Plant
+	for _, w := range p.Warnings {
+		r.warn(p.Source, "%s", w)
+	}
+	if in.Trend != nil {
+		for _, w := range in.Trend.Warnings {
+			r.warn(in.Trend.Name, "%s", w)
+		}
+	}
+	if w := r.Period.warning(); w != "" {
+		r.warn(SourceProfile, "%s", w)
+	}
+	for _, s := range r.Strategies {
+		for _, w := range s.Bill.Warnings {
+			r.warn(SourceTariff, "%s", w)
+		}
+	}
+	if !r.Appraised {
+		r.warn(SourceStudy, "the plant file has no retrofit section: savings are shown, but no investment, payback or NPV (add retrofit: with drive_cost and the other terms to appraise them)")
+	}
+	b := r.BaselineStrategy()
+	for _, s := range r.Strategies {
+		if s.Key != b.Key && s.Energy.HoursUnmet > b.Energy.HoursUnmet {
+			r.warn(SourceStudy, "%s leaves %.0f h unmet (baseline %.0f h): its savings count energy it did not deliver",
+				s.Name, s.Energy.HoursUnmet, b.Energy.HoursUnmet)
+		}
+		for _, l := range s.Energy.UnmetReasons() {
+			r.warn(SourceStudy, "%s: %.0f h unmet (%s)", s.Name, s.Energy.UnmetBy[l], l)
+		}
+	}
+	r.beatenNotes()
+	if r.SetpointsError != "" {
+		r.warn(SourceSetpoints, "no staging setpoints derived: %s", r.SetpointsError)
+	} else {
+		for _, w := range r.Setpoints.Warnings {
+			r.warn(SourceSetpoints, "%s", w)
+		}
+	}
+	if c := r.Calibration; c != nil && !c.Calibrated() {
+		r.warn(SourceStudy, "predicted power (%s) misses the logged power (NMBE %+.1f %%, CV(RMSE) %.1f %%, outside the ASHRAE Guideline 14 hourly criteria, from memory): calibrate the control head, curves or motor and drive data before relying on the savings",
+			c.Strategy, 100*c.NMBE, 100*c.CVRMSE)
+	}
+}
+
+// beatenNotes says where a strategy on other equipment (fewer drives)
+// draws less than the lowest-power staging: near full speed a drive's own
+// losses can exceed what speed control saves.
+func (r *Result) beatenNotes() {
+	lo := r.Strategy(KeyLowest)
+	if lo == nil {
+		return
+	}
+	for _, s := range r.Strategies {
+		if s.Key == KeyLowest || s.Drives >= lo.Drives {
+			continue
+		}
+		hours, worst := 0.0, 0.0
+		for i, st := range r.Steps {
+			a, b := lo.Run.Points[i], s.Run.Points[i]
+			if a.Status == optimize.Served && b.Status == optimize.Served && b.Power < a.Power {
+				hours += st.Hours
+				worst = math.Max(worst, float64(a.Power-b.Power)/float64(a.Power))
+			}
+		}
+		if hours > 0 {
+			r.warn(SourceStudy, "%s draws less than the lowest-power staging for %.0f h of the period (by up to %.1f %%): near full speed a drive's own losses exceed what speed control saves there; a drive bypass would recover it",
+				s.Name, hours, 100*worst)
+		}
+	}
+}

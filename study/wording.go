@@ -1,0 +1,77 @@
+package study
+
+import (
+	"fmt"
+	"math"
+	"strings"
+)
+
+// Cautions are the one copy of the safety and responsibility cautions that
+// every rendering shows where results could be acted on: the text report,
+// the JSON and the workbook's Summary.
+var Cautions = []string{
+	"These figures are planning estimates computed from the stated pump curves, defaults and load profile; they are not measured performance.",
+	"Pump, motor and drive limits come from their manufacturers. Before a sequence is changed, confirm with them the minimum flow and minimum speed of each pump, the NPSH margin against cavitation, motor cooling at low speed and any resonance at the new speeds.",
+	"Confirm the minimum flow of every chiller and boiler, and the bypass that holds it, with their manufacturers.",
+	"Sequences and retrofits are the responsibility of a licensed engineer under local codes; code checks here follow the user's code edition and must be verified locally.",
+}
+
+// Grouped writes v rounded to a whole number with thousands separators,
+// e.g. 122,665.
+func Grouped(v float64) string { return groupedDec(v, 0) }
+
+// groupedDec writes v with dec decimals and thousands separators.
+func groupedDec(v float64, dec int) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return "—"
+	}
+	s := fmt.Sprintf("%.*f", dec, math.Abs(v))
+	whole, frac, _ := strings.Cut(s, ".")
+	var b strings.Builder
+	if v < 0 && strings.Trim(s, "0.") != "" {
+		b.WriteByte('-')
+	}
+	for i, d := range whole {
+		if i > 0 && (len(whole)-i)%3 == 0 {
+			b.WriteByte(',')
+		}
+		b.WriteRune(d)
+	}
+	if frac != "" {
+		b.WriteByte('.')
+		b.WriteString(frac)
+	}
+	return b.String()
+}
+
+// recommendation writes the one-paragraph recommendation from the result's
+// annual figures.
+func recommendation(r *Result) string {
+	lo := r.Strategy(KeyLowest)
+	if lo == nil || lo.Savings == nil {
+		return ""
+	}
+	base := r.BaselineStrategy()
+	sv := lo.Savings
+	s := fmt.Sprintf("Run the lowest-power staging: %s kWh/yr against %s kWh/yr for %s (%.0f %% less), saving about %s %s/yr",
+		Grouped(lo.Annual.Energy), Grouped(base.Annual.Energy), base.Name, 100*sv.Share(base), Grouped(sv.Cost), r.Currency())
+	if a := lo.Appraisal; a != nil {
+		s += fmt.Sprintf("; %d drive(s) to buy, investment %s %s, simple payback %s", lo.DrivesAdded, Grouped(a.Investment), r.Currency(), PaybackWords(a.SimplePayback))
+	} else {
+		s += "; no investment appraisal (the plant file has no retrofit section)"
+	}
+	return s + "."
+}
+
+// PaybackWords writes a simple payback for a report: "4.2 years", "never"
+// when the savings are not positive, "immediate" only when nothing is
+// invested and something is saved.
+func PaybackWords(years float64) string {
+	switch {
+	case math.IsInf(years, 1) || math.IsNaN(years):
+		return "never"
+	case years == 0:
+		return "immediate"
+	}
+	return fmt.Sprintf("%.1f years", years)
+}
