@@ -10,8 +10,8 @@ import (
 	"strings"
 
 	"wattstage/curves"
-	"wattstage/study"
 	"wattstage/plant"
+	"wattstage/study"
 	"wattstage/workbook"
 )
 

@@ -13,8 +13,8 @@ import (
 
 	"wattstage/curves"
 	"wattstage/optimize"
-	"wattstage/study"
 	"wattstage/plant"
+	"wattstage/study"
 	"wattstage/workbook"
 )
 

@@ -1,9 +1,9 @@
 package workbook
 
 import (
-	"errors"
 	"archive/zip"
 	"bytes"
+	"errors"
 	"fmt"
 	"io"
 	"regexp"
