@@ -184,9 +184,9 @@ var unnamedTrendErrors = map[string]bool{"unknown-zone": true}
 
 // TestBadTrendFiles runs every file of the bad trend corpus through
 // `wattstage bins FILE --plant PLANT` with the corpus's column mapping, and
-// through `wattstage plan PLANT -o OUT.xlsx` with the same trend: both
-// exit 2; bins prints the trend reader's exact message (its golden file);
-// plan writes no workbook.
+// through `wattstage plan PLANT -o OUT.xlsx` and `wattstage check PLANT`
+// with the same trend: all exit 2; bins prints the trend reader's exact
+// message (its golden file); plan writes no workbook.
 func TestBadTrendFiles(t *testing.T) {
 	files, err := filepath.Glob(filepath.Join(badTrendsDir, "*.csv"))
 	if err != nil {
@@ -250,6 +250,19 @@ func TestBadTrendFiles(t *testing.T) {
 			}
 			if left := listDir(t, dir); len(left) != 1 {
 				t.Errorf("folder holds %v after a refused plan (only plant.yaml should be there)", left)
+			}
+
+			// check reads the trend as plan does, so it refuses it too.
+			args = []string{"check", plantPath}
+			r = run(t, args...)
+			if r.code != cmd.ExitBadInput || r.out != "" {
+				t.Fatalf("%s\n--- stdout\n%s", r.describe(args), r.out)
+			}
+			switch {
+			case strings.Contains(r.err, filepath.Base(f)), byLoader.MatchString(r.err):
+			case unnamedTrendErrors[name]:
+			default:
+				t.Errorf("check: stderr names neither the trend file nor the plant file's trend section:\n%s", r.err)
 			}
 		})
 	}

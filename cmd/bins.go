@@ -107,7 +107,7 @@ func binsRun(opts *BinsOptions) error {
 	if opts.JSON {
 		return writeJSON(opts.IO.Out, map[string]any{"trend": tr.Name, "flow_unit": unit, "interval": tr.Interval.String(),
 			"coverage": tr.Coverage(), "report": tr.Report, "width": float64(b.Width) / per, "bins": binsJSON(b, per),
-			"cube_error": b.CubeError, "warnings": tr.Warnings})
+			"cube_error": b.CubeError, "warnings": trendWarningsJSON(tr.Warnings)})
 	}
 	out := opts.IO.Out
 	fmt.Fprintf(out, "Trend: %s, %d points at %s intervals, %s to %s\n", tr.Name, len(tr.Points), tr.Interval,
@@ -115,10 +115,10 @@ func binsRun(opts *BinsOptions) error {
 	fmt.Fprintf(out, "Coverage: %.0f h of a %.0f h span (%.1f %%)\n", tr.Hours, tr.Span, 100*tr.Coverage())
 	fmt.Fprintf(out, "Rows: %s\n", strings.TrimSpace(tr.Report.Summary()))
 	for _, w := range tr.Warnings {
-		if strings.Contains(w, tr.Report.Summary()) {
+		if strings.Contains(w.Message, tr.Report.Summary()) {
 			continue // the Rows line above says it
 		}
-		fmt.Fprintln(out, "Note: "+w)
+		fmt.Fprintln(out, "Note: "+w.String())
 	}
 	heading(out, fmt.Sprintf("Flow histogram (bins of %.4g %s)", float64(b.Width)/per, unit))
 	t := newTable(out)

@@ -4,12 +4,14 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"path/filepath"
 	"strings"
 
 	"github.com/spf13/cobra"
 
 	"wattstage/curves"
 	"wattstage/plant"
+	"wattstage/profile"
 )
 
 // CheckOptions are the inputs of `wattstage check`.
@@ -28,7 +30,9 @@ func NewCmdCheck(streams *IO, runF func(*CheckOptions) error) *cobra.Command {
 		Long: `Validate a plant file and print what wattstage understood from it: the pump
 models with their fitted head and efficiency curves (coefficients and fit
 residuals), the best efficiency point of each model, motors, drives, the
-system curve, the load profile, the tariff, and every default filled in.`,
+system curve, the load profile, the tariff, every default filled in, and
+every warning (what is usable but questionable) with the file, line and
+field it is about. A trend-log profile is read, so its warnings show too.`,
 		Example: `  wattstage check examples/chilled-water.yaml
   wattstage check examples/condenser-water.yaml`,
 		Args: cobra.ExactArgs(1),
@@ -48,8 +52,50 @@ func checkRun(opts *CheckOptions) error {
 	if err != nil {
 		return err
 	}
+	var tr *profile.Trend
+	if p.Profile.Trend != nil {
+		if tr, err = readPlantTrend(p); err != nil {
+			return err
+		}
+	}
 	writePlant(opts.IO.Out, p)
+	writeWarnings(opts.IO.Out, p, tr)
 	return nil
+}
+
+// readPlantTrend reads the trend log of a plant whose profile is one, as
+// plan does: a relative path is taken from the plant file's folder.
+func readPlantTrend(p *plant.Plant) (*profile.Trend, error) {
+	spec := *p.Profile.Trend
+	if !filepath.IsAbs(spec.Path) {
+		spec.Path = filepath.Join(filepath.Dir(p.Source), spec.Path)
+	}
+	tr, err := profile.ReadTrendFile(spec, spec.Path)
+	if err != nil {
+		return nil, badInput(err)
+	}
+	return tr, nil
+}
+
+// writeWarnings lists the plant's warnings, then the trend reader's (tr
+// may be nil), each as origin: message.
+func writeWarnings(out io.Writer, p *plant.Plant, tr *profile.Trend) {
+	var lines []string
+	for _, w := range p.Warnings {
+		lines = append(lines, w.String())
+	}
+	if tr != nil {
+		for _, w := range tr.Warnings {
+			lines = append(lines, w.String())
+		}
+	}
+	if len(lines) == 0 {
+		return
+	}
+	heading(out, "Warnings")
+	for _, l := range lines {
+		fmt.Fprintln(out, "- "+l)
+	}
 }
 
 // writePlant prints the plant as understood.

@@ -89,7 +89,7 @@ func (d *decoder) checkMotorAtDesign(s *pumpSpec, sys *systemSpec) {
 		d.errorf(s.ratedNode, join(s.path, "motor.rated_output"), "%s is less than the pump's shaft power at the design head (%s), even with service factor %s",
 			d.fmtPower(m.Rated), duty, fmtNum(m.SF()))
 	case shaft > m.Rated:
-		d.warnf(join(s.path, "motor.rated_output"), "%s runs into its service factor at the design head (%s)", d.fmtPower(m.Rated), duty)
+		d.warnf(s.ratedNode, join(s.path, "motor.rated_output"), "%s runs into its service factor at the design head (%s)", d.fmtPower(m.Rated), duty)
 	}
 }
 
@@ -111,7 +111,7 @@ func (d *decoder) checkShutoff(fitted []*pumpSpec, allFitted bool, sys *systemSp
 			d.fmtHead(sys.designHead), strings.Join(short, ", "))
 	default:
 		for _, s := range short {
-			d.warnf("system.design_head", "%s is not below the shutoff head of %s: that unit cannot run at design head", d.fmtHead(sys.designHead), s)
+			d.warnf(sys.headNode, "system.design_head", "%s is not below the shutoff head of %s: that unit cannot run at design head", d.fmtHead(sys.designHead), s)
 		}
 	}
 }
@@ -139,7 +139,7 @@ func (d *decoder) checkCapacity(fitted []*pumpSpec, sys *systemSpec) {
 		d.errorf(sys.flowNode, "system.design_flow", "%s is %s times what every unit together delivers at the design head (%s): check the flow unit (this file is read in %s)",
 			d.fmtFlow(sys.designFlow), fmtNum(float64(sys.designFlow/total)), d.fmtFlow(total), d.units.FlowUnit())
 	case total < sys.designFlow*0.999:
-		d.warnf("system.design_flow", "every unit together at maximum speed delivers %s at the design head %s, short of the design flow %s",
+		d.warnf(sys.flowNode, "system.design_flow", "every unit together at maximum speed delivers %s at the design head %s, short of the design flow %s",
 			d.fmtFlow(total), d.fmtHead(sys.designHead), d.fmtFlow(sys.designFlow))
 	}
 }

@@ -26,7 +26,7 @@ type decoder struct {
 	unitsKnown bool    // false when the units key is missing or wrong
 	density    float64 // kg/m³ of the pumped fluid, for heads given as pressure
 	defaults   []string
-	warnings   []string
+	warnings   []Warning
 	visited    int
 	overflow   bool
 }
@@ -45,9 +45,14 @@ func (d *decoder) defaultf(path, format string, args ...any) {
 	d.defaults = append(d.defaults, path+": "+fmt.Sprintf(format, args...))
 }
 
-// warnf records something usable but questionable.
-func (d *decoder) warnf(path, format string, args ...any) {
-	d.warnings = append(d.warnings, path+": "+fmt.Sprintf(format, args...))
+// warnf records something usable but questionable at node n (its line and
+// column), as errorf does for problems.
+func (d *decoder) warnf(n *yaml.Node, path, format string, args ...any) {
+	w := Warning{File: d.file, Path: path, Message: fmt.Sprintf(format, args...)}
+	if n != nil {
+		w.Line, w.Column = n.Line, n.Column
+	}
+	d.warnings = append(d.warnings, w)
 }
 
 // resolve follows aliases and counts the nodes visited.

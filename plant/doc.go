@@ -180,7 +180,9 @@
 // words with its source (e.g. the motor efficiency from the NEMA Premium
 // table), so reports can flag it. Plant.Warnings lists what is usable but
 // questionable, such as a motor running into its service factor at the
-// design head or a unit that cannot reach the design head.
+// design head or a unit that cannot reach the design head; each [Warning]
+// points at the value it is about (file, line, column and field path), as
+// an [Error] does.
 //
 // The defaults (minimum speed 30 %, minimum flow 30 % of BEP, service
 // factor 1.15) are common practice, not the equipment's limits: minimum

@@ -53,7 +53,9 @@ func TestExamples(t *testing.T) {
 		t.Run(filepath.Base(f), func(t *testing.T) {
 			p := mustLoad(t, f)
 			if len(p.Warnings) > 0 {
-				t.Errorf("an example should load without warnings:\n%s", strings.Join(p.Warnings, "\n"))
+				for _, w := range p.Warnings {
+					t.Errorf("an example should load without warnings: %s", w)
+				}
 			}
 			capacity := curves.Flow(0)
 			for i, m := range p.Models {

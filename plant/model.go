@@ -35,8 +35,9 @@ type Plant struct {
 
 	// Warnings lists what is usable but questionable (a motor into its
 	// service factor at design, a unit that cannot reach the design head,
-	// a bin above the design flow), for the user to see.
-	Warnings []string
+	// a bin above the design flow), for the user to see, in the order they
+	// were found, each at the value it is about.
+	Warnings []Warning
 }
 
 // Model is one pump model of which Count identical units are installed.

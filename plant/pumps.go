@@ -46,21 +46,22 @@ var pumpKeys = []string{"name", "count", "rated_speed", "curve", "head_fit", "al
 // pumpSpec is a pump model while it is being read: the model and what is
 // still needed to finish it once the system is known.
 type pumpSpec struct {
-	path       string
-	f          *fields
-	model      Model
-	rpmOK      bool
-	pointNodes []*fields // nil entries for points that were not mappings
-	curveNode  *yaml.Node
-	minFlow    *flowValue
-	runout     *flowValue
-	branch     *branchSpec
-	motorOK    bool
-	ratedNode  *yaml.Node // motor.rated_output, for the motor size checks
-	driveNode  *yaml.Node
-	driveOK    bool
-	motorTable bool
-	doeDrive   bool
+	path         string
+	f            *fields
+	model        Model
+	rpmOK        bool
+	pointNodes   []*fields // nil entries for points that were not mappings
+	curveNode    *yaml.Node
+	minFlow      *flowValue
+	runout       *flowValue
+	branch       *branchSpec
+	motorOK      bool
+	ratedNode    *yaml.Node // motor.rated_output, for the motor size checks
+	driveNode    *yaml.Node
+	driveOK      bool
+	motorTable   bool
+	partLoadNode *yaml.Node // motor.part_load, for the warning on the DOE drive
+	doeDrive     bool
 }
 
 type branchSpec struct {
@@ -141,7 +142,7 @@ func (d *decoder) pump(n *yaml.Node, path string) *pumpSpec {
 	d.curve(s)
 	m.Motor, s.motorOK = d.motor(d.required(f, "motor", "the motor (at least rated_output)"), join(path, "motor"), s)
 	if s.motorTable && s.doeDrive {
-		d.warnf(join(path, "motor.part_load"), "with the DOE default drive losses the motor table only splits the combined motor-and-drive loss; give drive.efficiency_table or drive.iec_losses for the table to change the power")
+		d.warnf(s.partLoadNode, join(path, "motor.part_load"), "with the DOE default drive losses the motor table only splits the combined motor-and-drive loss; give drive.efficiency_table or drive.iec_losses for the table to change the power")
 	}
 	if v := d.value(f, "min_flow"); v != nil {
 		if fv, ok := d.flow(v, join(path, "min_flow"), "BEP flow"); ok {
@@ -533,7 +534,7 @@ func (d *decoder) motor(n *yaml.Node, path string, s *pumpSpec) (curves.Motor, b
 		t, tok := d.loadTable(tn, join(path, "part_load"), "the motor's shaft load as a fraction of rated output")
 		m.Table = t
 		ok = ok && tok
-		s.motorTable = tok
+		s.motorTable, s.partLoadNode = tok, tn
 	} else if !f.has("part_load") {
 		d.defaultf(join(path, "part_load"), "US DOE default part-load loss factor (10 CFR 431 subpart Y, appendix A)")
 	}
@@ -790,7 +791,7 @@ func (d *decoder) finishPump(s *pumpSpec) {
 		case m.Runout <= bep:
 			d.errorf(s.runout.node, join(path, "runout"), "%s is not above the fitted BEP flow %s", d.fmtFlow(m.Runout), d.fmtFlow(bep))
 		case m.Runout > m.Pump.LastFlow*1.0001:
-			d.warnf(join(path, "runout"), "%s is past the last datasheet point (%s): the curve is extrapolated there", d.fmtFlow(m.Runout), d.fmtFlow(m.Pump.LastFlow))
+			d.warnf(s.runout.node, join(path, "runout"), "%s is past the last datasheet point (%s): the curve is extrapolated there", d.fmtFlow(m.Runout), d.fmtFlow(m.Pump.LastFlow))
 		}
 	}
 	if s.branch != nil {

@@ -89,7 +89,7 @@ func (d *decoder) bins(n *yaml.Node, sys *systemSpec) []Bin {
 			continue
 		}
 		if sys != nil && sys.ok && q > sys.designFlow*1.0001 {
-			d.warnf(join(bp, "flow"), "%s is above the design flow %s", d.fmtFlow(q), d.fmtFlow(sys.designFlow))
+			d.warnf(fnode, join(bp, "flow"), "%s is above the design flow %s", d.fmtFlow(q), d.fmtFlow(sys.designFlow))
 		}
 		total += h
 		out = append(out, Bin{Flow: q, Hours: h})

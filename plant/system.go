@@ -116,7 +116,7 @@ func (d *decoder) dpControl(n *yaml.Node, s *systemSpec) curves.System {
 		ok = false
 	}
 	if r.HighFlow > s.designFlow {
-		d.warnf(join(rp, "high_flow"), "%s is above the design flow %s", d.fmtFlow(r.HighFlow), d.fmtFlow(s.designFlow))
+		d.warnf(hfn, join(rp, "high_flow"), "%s is above the design flow %s", d.fmtFlow(r.HighFlow), d.fmtFlow(s.designFlow))
 	}
 	if !ok {
 		return nil

@@ -150,8 +150,8 @@ func TestMessyWithoutZone(t *testing.T) {
 	if rep.Count(MissingLocal) != 0 || rep.Count(RepeatedHour) != 0 || !slices.Equal(rep.LinesOf(Duplicate), []int{24, 30, 31}) || rep.Kept != 15 {
 		t.Errorf("missing local %d repeated %d duplicates %v kept %d", rep.Count(MissingLocal), rep.Count(RepeatedHour), rep.LinesOf(Duplicate), rep.Kept)
 	}
-	if !slices.ContainsFunc(tr.Warnings, func(w string) bool {
-		return w == "3 duplicate stamps: if the log is local time with daylight saving, give the trend's time zone"
+	if !slices.ContainsFunc(tr.Warnings, func(w Warning) bool {
+		return w.Message == "3 duplicate stamps: if the log is local time with daylight saving, give the trend's time zone"
 	}) {
 		t.Errorf("warnings %q", tr.Warnings)
 	}

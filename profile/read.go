@@ -53,7 +53,7 @@ func ReadTrend(spec TrendSpec, r io.Reader, name string) (*Trend, error) {
 		return nil, p.fileErr(err)
 	}
 	if warn != "" {
-		p.warn("%s", warn)
+		p.warn(0, "%s", warn)
 	}
 	return p.read(splitLines(text))
 }
@@ -65,7 +65,7 @@ type reader struct {
 	flowMul  float64 // m³/s per file unit
 	dp       dpUnit
 	density  float64
-	warnings []string
+	warnings []Warning
 	rep      Report
 
 	delim              byte
@@ -115,8 +115,9 @@ func newReader(spec TrendSpec, name string) (*reader, error) {
 	return p, nil
 }
 
-func (p *reader) warn(format string, args ...any) {
-	p.warnings = append(p.warnings, fmt.Sprintf(format, args...))
+// warn records a warning about line (0 for the file as a whole).
+func (p *reader) warn(line int, format string, args ...any) {
+	p.warnings = append(p.warnings, Warning{File: p.name, Line: line, Message: fmt.Sprintf(format, args...)})
 }
 
 func (p *reader) fileErr(err error) error { return &ParseError{File: p.name, Err: err} }
@@ -194,7 +195,7 @@ func (p *reader) findHeader(lines []string) (int, error) {
 			p.rep.HeaderLine = i + 1
 			p.rep.Preamble = seen - 1
 			if seen > 1 {
-				p.warn("skipped %d lines before the header on line %d", seen-1, i+1)
+				p.warn(i+1, "skipped %d lines before the header on line %d", seen-1, i+1)
 			}
 			return i, nil
 		}
@@ -292,7 +293,7 @@ func (p *reader) mapColumns(line string, lineNo int) error {
 	if p.spec.FlowColumn == "" {
 		p.fi = p.flowIndex(header)
 		p.spec.FlowColumn = header[p.fi]
-		p.warn("flow column not named; using %q", header[p.fi])
+		p.warn(lineNo, "flow column not named; using %q", header[p.fi])
 	}
 	if p.fi, err = find(p.spec.FlowColumn); err != nil {
 		return err
@@ -652,7 +653,7 @@ func (p *reader) build(kept []*row) (*Trend, error) {
 			}
 		}
 		if 2*regular < len(steps) {
-			p.warn("logging steps are irregular: %d of %d equal the median step %s", regular, len(steps), iv)
+			p.warn(0, "logging steps are irregular: %d of %d equal the median step %s", regular, len(steps), iv)
 		}
 	}
 	if iv > maxInterval {
@@ -694,13 +695,13 @@ func (p *reader) addGap(from, to time.Time) {
 
 func (p *reader) finalWarnings(tr *Trend) {
 	if p.rep.Dropped > 0 {
-		p.warn("%d of %d rows dropped: %s", p.rep.Dropped, p.rep.Rows, p.rep.Summary())
+		p.warn(0, "%d of %d rows dropped: %s", p.rep.Dropped, p.rep.Rows, p.rep.Summary())
 	}
 	if n := p.rep.Count(Duplicate); n > 0 && p.spec.TimeZone == "" && !p.zoned {
-		p.warn("%d duplicate stamps: if the log is local time with daylight saving, give the trend's time zone", n)
+		p.warn(p.rep.LinesOf(Duplicate)[0], "%d duplicate stamps: if the log is local time with daylight saving, give the trend's time zone", n)
 	}
 	if c := tr.Coverage(); c < 0.9 {
-		p.warn("rows cover %.1f %% of the span (%.1f of %.1f h)", 100*c, tr.Hours, tr.Span)
+		p.warn(0, "rows cover %.1f %% of the span (%.1f of %.1f h)", 100*c, tr.Hours, tr.Span)
 	}
 }
 

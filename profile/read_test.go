@@ -236,7 +236,7 @@ func TestReadTrendFormats(t *testing.T) {
 			switch {
 			case c.warning == "" && len(tr.Warnings) > 0:
 				t.Errorf("unexpected warnings %q", tr.Warnings)
-			case c.warning != "" && !slices.Contains(tr.Warnings, c.warning):
+			case c.warning != "" && !slices.ContainsFunc(tr.Warnings, func(w Warning) bool { return w.Message == c.warning }):
 				t.Errorf("warnings %q lack %q", tr.Warnings, c.warning)
 			}
 			if c.check != nil {

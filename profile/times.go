@@ -115,8 +115,9 @@ func (p *reader) chooseLayout(rows []*row) string {
 	if tw := layouts[best].twin; tw != "" {
 		for i, l := range layouts {
 			if l.layout == tw && counts[i] == counts[best] {
-				p.warn("dates such as %q read as %s; give the trend's time format if that is wrong",
-					firstStamp(rows, p.ti), dayOrder(layouts[best].layout))
+				r := firstStamp(rows)
+				p.warn(r.line, "dates such as %q read as %s; give the trend's time format if that is wrong",
+					r.fields[p.ti], dayOrder(layouts[best].layout))
 			}
 		}
 	}
@@ -130,13 +131,15 @@ func dayOrder(l string) string {
 	return "day/month"
 }
 
-func firstStamp(rows []*row, ti int) string {
+// firstStamp returns the first row not yet dropped: the one whose stamp
+// stands for the file's. There is one whenever a layout was counted.
+func firstStamp(rows []*row) *row {
 	for _, r := range rows {
 		if r.drop < 0 {
-			return r.fields[ti]
+			return r
 		}
 	}
-	return ""
+	return nil
 }
 
 // parseTimes gives every good row its instant. Stamps with an offset are

@@ -59,7 +59,7 @@ type Trend struct {
 	Hours    float64        // hours the points represent (sum of Point.Hours)
 	Span     float64        // hours from Start to End
 	Report   Report         // every row accounted for
-	Warnings []string       // usable but questionable: say them to the user
+	Warnings []Warning      // usable but questionable, in the order found: say them to the user
 }
 
 // Coverage is the fraction of the span the points represent (1 = no gaps).

@@ -1,0 +1,134 @@
+package plant
+
+import (
+	"strings"
+	"testing"
+)
+
+// warnBase is minimal-us.yaml with placeholders (filled by fill) for the
+// values a warning is about. With the defaults the plant warns of nothing.
+// When part_load, runout and reset are empty, rated_output is on line 13,
+// design_flow on line 16 and the second bin on line 23.
+const warnBase = `units: US
+pumps:
+  - name: HWP
+    rated_speed: 1770
+    curve:
+      - {flow: 0, head: 80}
+      - {flow: 200, head: 77, efficiency: 55}
+      - {flow: 400, head: 70, efficiency: 74}
+      - {flow: 600, head: 59, efficiency: 80}
+      - {flow: 700, head: 52, efficiency: 78}
+      - {flow: 800, head: 44, efficiency: 72}
+    motor:
+      rated_output: {rated}
+{part_load}    drive: variable
+{runout}system:
+  design_flow: {design_flow}
+  design_head: 58
+  dp_control:
+    control_head: 20
+{reset}profile:
+  bins:
+    - {flow: 50%, hours: 3000}
+    - {flow: {bin}, hours: 100}
+tariff:
+  currency: USD
+  energy_price: 0.1
+`
+
+var warnDefaults = map[string]string{
+	"rated": "25", "part_load": "", "runout": "", "design_flow": "600", "reset": "", "bin": "90%",
+}
+
+func warnPlant(kv map[string]string) string {
+	all := map[string]string{}
+	for k, v := range warnDefaults {
+		all[k] = v
+	}
+	for k, v := range kv {
+		all[k] = v
+	}
+	return fill(warnBase, all)
+}
+
+// TestWarningPositions checks that each warning points at the value it is
+// about, by file, line, column and field path, as errors do.
+func TestWarningPositions(t *testing.T) {
+	cases := []struct {
+		name       string
+		kv         map[string]string
+		line, col  int
+		path, want string // want: a fragment of the message
+	}{
+		{"bin above the design flow", map[string]string{"bin": "650"},
+			23, 14, "profile.bins[1].flow", "650 gpm is above the design flow 600 gpm"},
+		{"bin above the design flow as a percentage", map[string]string{"bin": "105%"},
+			23, 14, "profile.bins[1].flow", "630 gpm is above the design flow 600 gpm"},
+		{"runout past the last datasheet point", map[string]string{"runout": "    runout: 850\n"},
+			15, 13, "pumps[0].runout", "850 gpm is past the last datasheet point (800 gpm)"},
+		{"reset high flow above the design flow", map[string]string{"reset": "    reset: {low_flow: 200, low_head: 10, high_flow: 650}\n"},
+			20, 53, "system.dp_control.reset.high_flow", "650 gpm is above the design flow 600 gpm"},
+		{"motor into its service factor", map[string]string{"rated": "10"},
+			13, 21, "pumps[0].motor.rated_output", "10 hp runs into its service factor at the design head"},
+		{"motor table with the DOE drive", map[string]string{"part_load": "      part_load:\n        - {load: 50%, efficiency: 89}\n        - {load: 100%, efficiency: 91}\n"},
+			15, 9, "pumps[0].motor.part_load", "the motor table only splits the combined motor-and-drive loss"},
+		{"capacity short of the design flow", map[string]string{"design_flow": "900"},
+			16, 16, "system.design_flow", "short of the design flow 900 gpm"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			p, err := Parse("warn.yaml", []byte(warnPlant(c.kv)), "")
+			if err != nil {
+				t.Fatalf("Parse:\n%v", err)
+			}
+			if len(p.Warnings) != 1 {
+				t.Fatalf("got %d warnings, want 1: %v", len(p.Warnings), p.Warnings)
+			}
+			w := p.Warnings[0]
+			if w.File != "warn.yaml" || w.Line != c.line || w.Column != c.col || w.Path != c.path {
+				t.Errorf("warning at %s:%d:%d %s, want warn.yaml:%d:%d %s", w.File, w.Line, w.Column, w.Path, c.line, c.col, c.path)
+			}
+			if !strings.Contains(w.Message, c.want) {
+				t.Errorf("message %q lacks %q", w.Message, c.want)
+			}
+			if strings.HasPrefix(w.Message, c.path) {
+				t.Errorf("message %q repeats the path", w.Message)
+			}
+		})
+	}
+}
+
+// TestWarningsClean: the base file itself warns of nothing, so each case
+// above tests one warning.
+func TestWarningsClean(t *testing.T) {
+	p, err := Parse("warn.yaml", []byte(warnPlant(nil)), "")
+	if err != nil {
+		t.Fatalf("Parse:\n%v", err)
+	}
+	if len(p.Warnings) > 0 {
+		t.Errorf("warnings %v", p.Warnings)
+	}
+}
+
+func TestWarningFormat(t *testing.T) {
+	cases := []struct {
+		w              Warning
+		origin, string string
+	}{
+		{Warning{File: "p.yaml", Line: 12, Column: 15, Path: "profile.bins[3].flow", Message: "650 gpm is above the design flow 600 gpm"},
+			"p.yaml:12:15: profile.bins[3].flow", "p.yaml:12:15: profile.bins[3].flow: 650 gpm is above the design flow 600 gpm"},
+		{Warning{File: "p.yaml", Line: 12, Path: "system.design_flow", Message: "m"},
+			"p.yaml:12: system.design_flow", "p.yaml:12: system.design_flow: m"},
+		{Warning{File: "p.yaml", Path: "system.design_flow", Message: "m"},
+			"p.yaml: system.design_flow", "p.yaml: system.design_flow: m"},
+	}
+	for _, c := range cases {
+		if got := c.w.Origin(); got != c.origin {
+			t.Errorf("Origin() = %q, want %q", got, c.origin)
+		}
+		if got := c.w.String(); got != c.string {
+			t.Errorf("String() = %q, want %q", got, c.string)
+		}
+	}
+}
