@@ -29,11 +29,11 @@ func (r *Result) warn(source, format string, args ...any) {
 func (r *Result) gatherWarnings(in *Input) {
 	p := r.Plant
 	for _, w := range p.Warnings {
-		r.warn(p.Source, "%s", w)
+		r.warn(w.Origin(), "%s", w.Message)
 	}
 	if in.Trend != nil {
 		for _, w := range in.Trend.Warnings {
-			r.warn(in.Trend.Name, "%s", w)
+			r.warn(w.Origin(), "%s", w.Message)
 		}
 	}
 	if w := r.Period.warning(); w != "" {
