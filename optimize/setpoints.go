@@ -7,27 +7,6 @@ import (
 	"wattstage/plant"
 )
 
-// Staging setpoints: from the lowest-power staging to values a building
-// automation system can run.
-//
-// The stages are the combinations of running units that the common-speed
-// optimum picks as the plant flow rises (one speed signal for every running
-// unit on a drive, as sequences are programmed). Between two stages A and B
-// the stage-up flow is the crossover, the flow Q* where
-//
-//	P_A(Q*) = P_B(Q*)
-//
-// with P_X the lowest input of combination X at plant flow Q (found by
-// Brent's root search on P_A − P_B; Viholainen et al. 2013 and Bortoni et al.
-// 2008 state the equal-power rule for identical units, DOMAIN §7), unless A
-// runs out of capacity first: then the stage-up flow sits a margin below the
-// flow at which A reaches its limit. The stage-down flow lies a deadband below
-// the stage-up flow, widened until the units running just after a stage-up
-// turn at least a speed margin faster than their own stage-down speed (so
-// that a stage-up never immediately calls for the stage-down), and raised
-// where a unit's minimum flow or speed, the plant minimum flow or the band of
-// the stage below would be broken.
-
 // Limits that set a staging value, beside the operating limits in types.go.
 const (
 	LimitCrossover Limit = "power crossover"
