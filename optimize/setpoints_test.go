@@ -563,29 +563,6 @@ func TestSequenceOnTrend(t *testing.T) {
 		pr.Optimum.KWh, pr.OptimumChanges, pr.Sequence.KWh, pr.ExtraPct, pr.Cycling.Changes, pr.Cycling.PerDay, pr.Cycling.MaxPerHour, starts.Name, starts.Allowed)
 }
 
-// Brent's method against two classic roots: the fixed point of cos (the
-// Dottie number 0.7390851332151607, OEIS A003957) and Wallis's cubic
-// x³ − 2x − 5 = 0, root 2.0945514815423265 (the example Newton's method is
-// traditionally shown on).
-func TestBrentRoot(t *testing.T) {
-	cases := []struct {
-		name string
-		f    func(float64) float64
-		a, b float64
-		want float64
-	}{
-		{"cos x = x", func(x float64) float64 { return math.Cos(x) - x }, 0, 1, 0.7390851332151607},
-		{"Wallis cubic", func(x float64) float64 { return x*x*x - 2*x - 5 }, 2, 3, 2.0945514815423265},
-		{"root at an end", func(x float64) float64 { return x - 1 }, 1, 2, 1},
-	}
-	for _, c := range cases {
-		got := brentRoot(c.f, c.a, c.b, c.f(c.a), c.f(c.b), 1e-14)
-		if math.Abs(got-c.want) > 1e-12 {
-			t.Errorf("%s: %.16f, want %.16f", c.name, got, c.want)
-		}
-	}
-}
-
 // With its largest unit out, an identical three-unit plant runs two units;
 // at the most they deliver they run at maximum speed on the control curve:
 // 2q with H(q, 1) = H_sys(2q), solved here directly by bisection.
@@ -722,34 +699,6 @@ func TestDeriveSetpointsErrors(t *testing.T) {
 	}
 	if sp.Transitions[0].Up.Delay != 3*time.Minute {
 		t.Errorf("stage-up delay %v, want the 3 min override", sp.Transitions[0].Up.Delay)
-	}
-}
-
-// NEMA MG 10's allowed starts per hour fall with motor size and rise with
-// pole count (values from memory; the trend is what MG 10 and DOMAIN §7
-// state).
-func TestStartsPerHourShape(t *testing.T) {
-	prev := map[int]float64{2: math.Inf(1), 4: math.Inf(1), 6: math.Inf(1)}
-	for _, hp := range []float64{1, 2, 5, 10, 25, 50, 100, 200, 250} {
-		r := curves.Power(hp * curves.Horsepower)
-		a2, a4, a6 := StartsPerHour(r, 2), StartsPerHour(r, 4), StartsPerHour(r, 6)
-		if !(a2 < a4 && a4 < a6) {
-			t.Errorf("%g hp: %g / %g / %g starts per hour at 2/4/6 poles should rise with poles", hp, a2, a4, a6)
-		}
-		for poles, a := range map[int]float64{2: a2, 4: a4, 6: a6} {
-			if !(a < prev[poles]) {
-				t.Errorf("%g hp %d-pole: %g starts per hour not below the smaller motor's %g", hp, poles, a, prev[poles])
-			}
-			prev[poles] = a
-		}
-	}
-	for _, c := range []struct {
-		hp    float64
-		poles int
-	}{{0.5, 4}, {300, 4}, {10, 8}} {
-		if v := StartsPerHour(curves.Power(c.hp*curves.Horsepower), c.poles); !math.IsNaN(v) {
-			t.Errorf("%g hp %d-pole: %g, want NaN outside the table", c.hp, c.poles, v)
-		}
 	}
 }
 

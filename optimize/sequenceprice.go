@@ -1,0 +1,51 @@
+package optimize
+
+import (
+	"fmt"
+	"math"
+)
+
+// SequencePrice compares the derived sequence with the unconstrained optimum
+// and with the plant's current thresholds over one profile.
+type SequencePrice struct {
+	Basis      Basis
+	Optimum    Energy // lowest power at every step, each model at its own speed
+	Sequence   Energy // the derived sequence
+	Current    Energy // the plant's current thresholds; zero when it gives none
+	HasCurrent bool
+	// ExtraPct is the sequence's energy over the optimum's, in %;
+	// CurrentExtraPct the current thresholds' (NaN without them).
+	ExtraPct, CurrentExtraPct float64
+	Cycling                   Cycling // stage changes of the derived sequence
+	OptimumChanges            int     // stage changes of the optimum on a trend
+	Warnings                  []string
+}
+
+// PriceSequence runs the optimum, the derived sequence and the plant's
+// current thresholds (if any) over the steps and compares their energy.
+func PriceSequence(sp *Setpoints, steps []Step, basis Basis) SequencePrice {
+	p := sp.Plant
+	pr := SequencePrice{Basis: basis, CurrentExtraPct: math.NaN()}
+	opt := NewLowest("lowest power", p, Options{}).Run(steps)
+	seqRun, cy := NewSequenced("derived sequence", sp, basis).RunCycling(steps)
+	pr.Optimum, pr.Sequence, pr.Cycling = Sum(opt, steps), Sum(seqRun, steps), cy
+	pr.OptimumChanges = opt.Changes
+	pr.ExtraPct = 100 * (pr.Sequence.KWh/pr.Optimum.KWh - 1)
+	if p.Sequence != nil {
+		pr.Current, pr.HasCurrent = Sum(NewStaged("current thresholds", p, *p.Sequence).Run(steps), steps), true
+		pr.CurrentExtraPct = 100 * (pr.Current.KWh/pr.Optimum.KWh - 1)
+	}
+	for _, e := range []Energy{pr.Sequence, pr.Current} {
+		if e.Name != "" && math.Abs(e.HoursUnmet-pr.Optimum.HoursUnmet) > 1e-9 {
+			pr.Warnings = append(pr.Warnings, fmt.Sprintf("%s leaves %.1f h unserved, the optimum %.1f h: the energies cover different hours",
+				e.Name, e.HoursUnmet, pr.Optimum.HoursUnmet))
+		}
+	}
+	for _, m := range cy.Models {
+		if m.Over {
+			pr.Warnings = append(pr.Warnings, fmt.Sprintf("%s: up to %d starts in one hour, above the %.1f per hour NEMA MG 10 guidance (from memory) for its motor; lengthen the delays or widen the deadband",
+				m.Name, m.MaxPerHour, m.Allowed))
+		}
+	}
+	return pr
+}
