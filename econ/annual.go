@@ -15,7 +15,9 @@ type Annual struct {
 // by factor (8,760 h over the hours the series covers). The demand charge
 // does not scale with hours: a time-stamped bill counts each covered
 // month's peak once, and the annual demand cost is the mean over those
-// months times 12, so that a week, a year and two years of the same
+// months times 12, each month weighted by the share of it the series
+// covers (a trend that ends on the 1st does not let that day's peak stand
+// for a whole month), so that a week, a year and two years of the same
 // operation give the same annual figure. An untimed bill already charges
 // 12 months (its highest bin power every month) and is kept as it is.
 func (b *Bill) Annualise(factor float64) Annual {
@@ -23,14 +25,17 @@ func (b *Bill) Annualise(factor float64) Annual {
 		Emissions: b.Emissions * factor}
 	switch {
 	case b.Timed && len(b.Months) > 0:
-		var cost, peaks float64
+		var cost, peaks, n float64
 		for _, m := range b.Months {
-			cost += m.DemandCost
-			peaks += m.PeakKW
+			w := min(1, m.Hours/monthHours(m.Year, m.Month))
+			cost += w * m.DemandCost
+			peaks += w * m.PeakKW
+			n += w
 		}
-		n := float64(len(b.Months))
-		a.DemandCost = 12 * cost / n
-		a.BilledDemand = 12 * peaks / n
+		if n > 0 {
+			a.DemandCost = 12 * cost / n
+			a.BilledDemand = 12 * peaks / n
+		}
 	default:
 		a.DemandCost = b.DemandCost
 		a.BilledDemand = 12 * b.PeakKW

@@ -182,11 +182,11 @@ func (b *Bill) costTimed(t *Tariff, series []Sample) {
 	}
 	if t.DemandCharge > 0 && len(b.Months) > 0 {
 		if f := b.Months[0]; f.Hours < 0.9*monthHours(f.Year, f.Month) {
-			b.Warnings = append(b.Warnings, fmt.Sprintf("%s %d is only partly covered (%.0f h) but bears a full month's demand charge", f.Month, f.Year, f.Hours))
+			b.Warnings = append(b.Warnings, fmt.Sprintf("%s %d is only partly covered (%.0f h): the period's bill charges its whole month of demand; a year weights it by the share covered", f.Month, f.Year, f.Hours))
 		}
 		if n := len(b.Months); n > 1 {
 			if l := b.Months[n-1]; l.Hours < 0.9*monthHours(l.Year, l.Month) {
-				b.Warnings = append(b.Warnings, fmt.Sprintf("%s %d is only partly covered (%.0f h) but bears a full month's demand charge", l.Month, l.Year, l.Hours))
+				b.Warnings = append(b.Warnings, fmt.Sprintf("%s %d is only partly covered (%.0f h): the period's bill charges its whole month of demand; a year weights it by the share covered", l.Month, l.Year, l.Hours))
 			}
 		}
 	}

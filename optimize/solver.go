@@ -3,10 +3,19 @@ package optimize
 import (
 	"math"
 	"sort"
+	"sync/atomic"
 
 	"wattstage/curves"
 	"wattstage/plant"
 )
+
+// solves counts the points solved by every Solver in the process.
+var solves atomic.Int64
+
+// Solves returns how many points every Solver in the process has solved
+// so far: tests use it to show that a rendering solves nothing, benchmarks
+// to count the work of a study.
+func Solves() int64 { return solves.Load() }
 
 // Options choose how the solver may run the units.
 type Options struct {
@@ -101,6 +110,7 @@ func (s *Solver) ByCount(load curves.Flow) []Result {
 
 // SolveWith is Solve limited by a constraint.
 func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
+	solves.Add(1)
 	pumped := load
 	if s.plant.MinFlow > pumped {
 		pumped = s.plant.MinFlow

@@ -24,7 +24,7 @@ func (b *book) loadPointsSheet() {
 	u := r.Units
 	cur := b.currency()
 	s.text(1, 1, "Load points: "+r.Plant, "title")
-	s.text(1, 2, "Each bin (or logged interval) under each strategy: what runs, how fast, at what efficiency, and the limit that binds.", "subtitle")
+	s.text(1, 2, "Each load step (a bin, or a flow group of logged intervals) under each strategy, a year: what runs, how fast, at what efficiency, and the limit that binds.", "subtitle")
 	slots := 0
 	for _, lp := range r.LoadPoints {
 		slots = max(slots, len(lp.Units))
@@ -32,7 +32,7 @@ func (b *book) loadPointsSheet() {
 	labels := []string{
 		"Bin", "Strategy", "Plant flow (" + u.Flow + ")", "Required head (" + u.Head + ")",
 		"Delivered head (" + u.Head + ")", "Hours (h/yr)", "Units running (count)", "Running",
-		"Group input (kW)", "Energy (kWh/yr)", "Cost at stated tariff (" + cur + "/yr)", "Binding limit", "Flags",
+		"Group input, mean (kW)", "Energy (kWh/yr)", "Cost at stated tariff (" + cur + "/yr)", "Binding limit", "Flags",
 	}
 	for k := 1; k <= slots; k++ {
 		p := fmt.Sprintf("Unit %d ", k)
