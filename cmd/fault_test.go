@@ -193,6 +193,9 @@ func TestInputsNeverModified(t *testing.T) {
 	at := func(n string) string { return filepath.Join(dir, n) }
 	var runs [][]string
 	for _, c := range goldenCases {
+		if !strings.HasPrefix(c.args[1], "examples/") {
+			continue // only the examples are copied
+		}
 		args := append([]string(nil), c.args...)
 		args[1] = at(filepath.Base(args[1]))
 		runs = append(runs, args)

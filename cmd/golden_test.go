@@ -34,6 +34,8 @@ var goldenCases = []struct {
 	{"plan-chilled-water", []string{"plan", "examples/chilled-water.yaml"}},
 	{"plan-condenser-water", []string{"plan", "examples/condenser-water.yaml"}},
 	{"plan-chilled-water-trend", []string{"plan", "examples/chilled-water-trend.yaml"}},
+	{"plan-condenser-water-json", []string{"plan", "examples/condenser-water.yaml", "--json"}},
+	{"plan-minimal-no-retrofit", []string{"plan", "testdata/plants/minimal-us.yaml"}},
 	{"bins-chilled-water-trend", []string{"bins", "examples/chilled-water-trend.csv"}},
 	{"bins-chilled-water-trend-width200", []string{"bins", "examples/chilled-water-trend.csv", "--width", "200"}},
 }

@@ -269,7 +269,7 @@ func writeChecks(out io.Writer, r *study.Result) {
 }
 
 func writeProfileLine(out io.Writer, r *study.Input) {
-	pd := study.PeriodOf(r.Steps)
+	pd := study.PeriodOf(r.Steps, r.Plant.Profile.AnnualHours)
 	switch {
 	case r.Binned != nil:
 		fmt.Fprintf(out, "Profile: trend %s binned into %d bins of %s, %s h (binning error estimate %.2f %% on a cube law)\n",
@@ -280,11 +280,11 @@ func writeProfileLine(out io.Writer, r *study.Input) {
 			pd.Start.Format("2006-01-02 15:04"), pd.End.Format("2006-01-02 15:04"), 100*pd.Coverage())
 		fmt.Fprintf(out, "Trend rows: %s\n", strings.TrimSpace(r.Trend.Report.Summary()))
 	default:
-		fmt.Fprintf(out, "Profile: %d bins, %s h\n", len(r.Steps), study.Grouped(pd.CoveredHours))
+		fmt.Fprintf(out, "Profile: %s, %s h a year\n", plural(len(r.Steps), "bin", "bins"), study.Grouped(pd.CoveredHours))
 	}
 	if math.Abs(pd.Factor-1) > 1e-9 {
-		fmt.Fprintf(out, "A year: the period's energy, cost and emissions × %.4f (8,760 h ÷ %s h covered); demand charges from the mean of the covered months\n",
-			pd.Factor, study.Grouped(pd.CoveredHours))
+		fmt.Fprintf(out, "A year: the period's energy, cost and emissions × %.4f (%s h a year ÷ %s h covered); demand charges from the mean of the covered months\n",
+			pd.Factor, study.Grouped(pd.AnnualHours), study.Grouped(pd.CoveredHours))
 	}
 }
 
@@ -295,4 +295,12 @@ func nanOr(v float64) any {
 		return nil
 	}
 	return v
+}
+
+// plural writes n with the singular or plural noun.
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
 }

@@ -79,7 +79,7 @@ func assumptions(res *study.Result) []string {
 		out = append(out, "Savings range: the lowest-power staging and the baseline re-run together with "+strings.Join(what, "; ")+" (each on its own, across-the-line motors included).")
 	}
 	pd := res.Period
-	out = append(out, fmt.Sprintf("Annual figures: the period's energy, cost and emissions × %.4f (8,760 h ÷ %s h covered); demand charges from the mean of the covered months' billed peaks × 12.", pd.Factor, study.Grouped(pd.CoveredHours)),
+	out = append(out, fmt.Sprintf("Annual figures: the period's energy, cost and emissions × %.4f (%s h a year ÷ %s h covered); demand charges from the mean of the covered months' billed peaks × 12.", pd.Factor, study.Grouped(pd.AnnualHours), study.Grouped(pd.CoveredHours)),
 		"Results are planning estimates; see the cautions.")
 	return out
 }

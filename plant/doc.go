@@ -80,6 +80,9 @@
 //	  #   dp_column: loop_dp_psi         # optional
 //	  #   dp_unit: psi                   # psi, kPa, ft or m; default read from the header
 //	  #   power_column: pump_kw          # optional, measured total pump kW
+//	  # annual_hours: 8760               # hours a year the profile stands for; default:
+//	  #                                  # the bins' own hours (the plant off the rest),
+//	  #                                  # or 8760 for a trend (scaled by 8760 ÷ covered h)
 //
 //	tariff:
 //	  currency: USD

@@ -62,6 +62,11 @@ func (m *Model) Variable() bool { return m.Drive.Variable() }
 type Profile struct {
 	Bins  []Bin
 	Trend *profile.TrendSpec // nil when the file gives bins only
+	// AnnualHours is the hours a year the profile stands for: the period's
+	// energy is scaled to a year by AnnualHours over the hours it covers.
+	// 0 = the default: the bins' own hours (they are hours a year, the
+	// plant off for the rest), or 8,760 h for a trend.
+	AnnualHours float64
 }
 
 // Bin is a load-profile bin: a flow through the load and the hours a year at it.

@@ -22,9 +22,18 @@ const (
 // profile reads the load profile: bins or a trend.
 func (d *decoder) profile(n *yaml.Node, sys *systemSpec) Profile {
 	var p Profile
-	f := d.mapping(n, "profile", "bins or trend", "bins", "trend")
+	f := d.mapping(n, "profile", "bins or trend", "bins", "trend", "annual_hours")
 	if f == nil {
 		return p
+	}
+	if an := d.value(f, "annual_hours"); an != nil {
+		if h, ok := d.number(an, "profile.annual_hours"); ok {
+			if h <= 0 || h > maxYearHours {
+				d.errorf(an, "profile.annual_hours", "%s: give the hours a year the profile stands for, above 0 and at most %d", an.Value, maxYearHours)
+			} else {
+				p.AnnualHours = h
+			}
+		}
 	}
 	bn, tn := d.value(f, "bins"), d.value(f, "trend")
 	switch {

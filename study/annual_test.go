@@ -90,3 +90,32 @@ func TestTwoYearsCountOnce(t *testing.T) {
 		}
 	}
 }
+
+// Bins are hours a year with the plant off for the rest (plant file
+// format): bins of 3,000 h are not scaled, and a warning says so; with
+// profile.annual_hours the same bins are scaled to that many hours.
+func TestBinsAreHoursAYear(t *testing.T) {
+	p := examplePlant(t, "chilled-water.yaml")
+	for i := range p.Profile.Bins {
+		p.Profile.Bins[i].Hours *= 3000.0 / 8760
+	}
+	r := runPlant(t, p, noRange)
+	if !relClose(r.Period.Factor, 1, 1e-12) || !relClose(r.Period.AnnualHours, 3000, 1e-9) {
+		t.Errorf("bins of 3,000 h: factor %v, %v h a year; want 1 and 3,000", r.Period.Factor, r.Period.AnnualHours)
+	}
+	if !hasWarning(r, "taken as off for the other 5,760.0 h") {
+		t.Errorf("no warning that the plant is off for the rest of the year: %v", r.Warnings)
+	}
+	lo := r.Strategy(study.KeyLowest)
+	if !relClose(lo.Annual.Energy, lo.Energy.KWh, 1e-12) {
+		t.Errorf("annual %v kWh, period %v kWh: bins are already a year", lo.Annual.Energy, lo.Energy.KWh)
+	}
+	p.Profile.AnnualHours = 8760
+	s := runPlant(t, p, noRange)
+	if !relClose(s.Period.Factor, 8760.0/3000, 1e-12) {
+		t.Errorf("annual_hours 8760 on 3,000 h of bins: factor %v, want 2.92", s.Period.Factor)
+	}
+	if sl := s.Strategy(study.KeyLowest); !relClose(sl.Annual.Energy, 2.92*lo.Energy.KWh, 1e-12) {
+		t.Errorf("scaled annual energy %v, want 2.92 × %v", sl.Annual.Energy, lo.Energy.KWh)
+	}
+}

@@ -37,7 +37,7 @@ var ErrBaseline = fmt.Errorf("study: baseline")
 // those runs, and every warning gathered with its origin.
 func Run(in *Input, opt Options) (*Result, error) {
 	p := in.Plant
-	r := &Result{Plant: p, Trend: in.Trend, Binned: in.Binned, Steps: in.Steps, Period: PeriodOf(in.Steps),
+	r := &Result{Plant: p, Trend: in.Trend, Binned: in.Binned, Steps: in.Steps, Period: PeriodOf(in.Steps, p.Profile.AnnualHours),
 		Appraised: p.HasRetrofit, Cautions: Cautions, Baseline: -1}
 	if r.Period.Factor == 0 {
 		return nil, fmt.Errorf("study: the profile covers no hours")
