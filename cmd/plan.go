@@ -10,6 +10,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"wattstage/curves"
+	"wattstage/econ"
 	"wattstage/study"
 )
 
@@ -185,7 +186,7 @@ func writeSavings(out io.Writer, r *study.Result) {
 			if !math.IsInf(a.SIR, 0) && !math.IsNaN(a.SIR) && a.Investment > 0 {
 				sir = num(a.SIR, 2)
 			}
-			row = append(row, study.Grouped(a.Investment), study.PaybackWords(a.SimplePayback), study.Grouped(a.NPV), sir)
+			row = append(row, study.Grouped(a.Investment), econ.PaybackText(a.SimplePayback), study.Grouped(a.NPV), sir)
 		}
 		t.row(row...)
 	}

@@ -105,13 +105,13 @@ func TestTuningStudyPaysForItsWork(t *testing.T) {
 	if a := lo.Appraisal; a.Investment != other || !relClose(a.SimplePayback, other/a.AnnualSavings, 1e-12) {
 		t.Errorf("investment %v, payback %v years; want the other costs %v and %v/%v", a.Investment, a.SimplePayback, other, other, a.AnnualSavings)
 	}
-	if w := study.PaybackWords(lo.Appraisal.SimplePayback); w == "immediate" {
+	if w := econ.PaybackText(lo.Appraisal.SimplePayback); w == "immediate" {
 		t.Errorf("payback %q with %v invested", w, other)
 	}
 	p := examplePlant(t, "chilled-water-trend.yaml")
 	p.Retrofit.OtherCost = 0
 	r = runPlant(t, p, noRange)
-	if w := study.PaybackWords(r.Strategy(study.KeyLowest).Appraisal.SimplePayback); w != "immediate" {
+	if w := econ.PaybackText(r.Strategy(study.KeyLowest).Appraisal.SimplePayback); w != "immediate" {
 		t.Errorf("nothing invested and savings positive: payback %q, want immediate", w)
 	}
 }

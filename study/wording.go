@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"wattstage/econ"
 )
 
 // Cautions are the one copy of the safety and responsibility cautions that
@@ -56,22 +58,9 @@ func recommendation(r *Result) string {
 	s := fmt.Sprintf("Run the lowest-power staging: %s kWh/yr against %s kWh/yr for %s (%.0f %% less), saving about %s %s/yr",
 		Grouped(lo.Annual.Energy), Grouped(base.Annual.Energy), base.Name, 100*sv.Share(base), Grouped(sv.Cost), r.Currency())
 	if a := lo.Appraisal; a != nil {
-		s += fmt.Sprintf("; %d drive(s) to buy, investment %s %s, simple payback %s", lo.DrivesAdded, Grouped(a.Investment), r.Currency(), PaybackWords(a.SimplePayback))
+		s += fmt.Sprintf("; %d drive(s) to buy, investment %s %s, simple payback %s", lo.DrivesAdded, Grouped(a.Investment), r.Currency(), econ.PaybackText(a.SimplePayback))
 	} else {
 		s += "; no investment appraisal (the plant file has no retrofit section)"
 	}
 	return s + "."
-}
-
-// PaybackWords writes a simple payback for a report: "4.2 years", "never"
-// when the savings are not positive, "immediate" only when nothing is
-// invested and something is saved.
-func PaybackWords(years float64) string {
-	switch {
-	case math.IsInf(years, 1) || math.IsNaN(years):
-		return "never"
-	case years == 0:
-		return "immediate"
-	}
-	return fmt.Sprintf("%.1f years", years)
 }
