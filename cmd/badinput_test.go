@@ -297,7 +297,7 @@ func TestUsageErrors(t *testing.T) {
 		{"plan -o not xlsx", []string{"plan", cw, "-o", filepath.Join(dir, "out.txt")}, ".xlsx"},
 		{"plan --baseline unknown", []string{"plan", cw, "--baseline", "wishful"}, "baseline"},
 		{"plan --bin-width on bins", []string{"plan", cw, "--bin-width", "100"}, "--bin-width"},
-		{"setpoints --basis", []string{"setpoints", cw, "--basis", "pressure"}, "--basis"},
+		{"setpoints --signal", []string{"setpoints", cw, "--signal", "pressure"}, "--signal"},
 		{"setpoints --deadband", []string{"setpoints", cw, "--deadband", "0.6"}, "--deadband"},
 		{"setpoints --up-delay", []string{"setpoints", cw, "--up-delay", "soon"}, "--up-delay"},
 		{"bins --width zero", []string{"bins", trend, "--width", "0"}, "--width"},

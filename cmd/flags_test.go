@@ -74,15 +74,15 @@ func TestPlanFlags(t *testing.T) {
 func TestSetpointsFlags(t *testing.T) {
 	var got *cmd.SetpointsOptions
 	c := cmd.NewCmdSetpoints(&cmd.IO{}, func(o *cmd.SetpointsOptions) error { got = o; return nil })
-	if err := execute(t, c, "p.yaml", "--deadband", "0.15", "--up-delay", "3m", "--down-delay", "15m", "--basis", "speed", "--json"); err != nil {
+	if err := execute(t, c, "p.yaml", "--deadband", "0.15", "--up-delay", "3m", "--down-delay", "15m", "--signal", "speed", "--json"); err != nil {
 		t.Fatal(err)
 	}
 	got.IO = nil
-	want := cmd.SetpointsOptions{PlantPath: "p.yaml", Deadband: 0.15, UpDelay: 3 * time.Minute, DownDelay: 15 * time.Minute, Basis: "speed", JSON: true}
+	want := cmd.SetpointsOptions{PlantPath: "p.yaml", Deadband: 0.15, UpDelay: 3 * time.Minute, DownDelay: 15 * time.Minute, Signal: "speed", Format: "json", JSON: true}
 	if !reflect.DeepEqual(*got, want) {
 		t.Errorf("options %+v, want %+v", *got, want)
 	}
-	for _, bad := range [][]string{{"p.yaml", "--basis", "dp"}, {"p.yaml", "--deadband", "0.5"}, {"p.yaml", "--deadband", "-0.1"}} {
+	for _, bad := range [][]string{{"p.yaml", "--signal", "dp"}, {"p.yaml", "--format", "xml"}, {"p.yaml", "--deadband", "0.5"}, {"p.yaml", "--deadband", "-0.1"}} {
 		called := false
 		c := cmd.NewCmdSetpoints(&cmd.IO{}, func(*cmd.SetpointsOptions) error { called = true; return nil })
 		if err := execute(t, c, bad...); err == nil || called {

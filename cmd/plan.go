@@ -153,6 +153,7 @@ func writePlan(out io.Writer, r *study.Result) {
 	t.flush()
 	writeSavings(out, r)
 	writeRange(out, r)
+	writePressure(out, r)
 	writeChecks(out, r)
 	if len(r.Warnings) > 0 {
 		heading(out, "Warnings and notes")
@@ -237,7 +238,10 @@ func writeChecks(out io.Writer, r *study.Result) {
 		fmt.Fprintf(out, "- Part load, %s: %.1f kW at 50 %% of design flow = %.1f %% of the %.1f kW at design; %s the 30 %% limit (%s)\n",
 			c.Label, c.HalfKW, 100*c.Ratio, c.DesignKW, verdict, c.Note)
 	}
-	if uo := r.UnitOut; uo != nil {
+	if uo := r.UnitOut; uo != nil && uo.Standby {
+		fmt.Fprintf(out, "- One unit out (%s): the standby unit takes its place, so the duty pumps still deliver up to %s (%.0f %% of design) at %s\n",
+			uo.Removed, u.FormatFlow(uo.MaxFlow), 100*float64(uo.MaxFlow/p.DesignFlow), u.FormatHead(uo.AtMax.HeaderHead))
+	} else if uo != nil {
 		if uo.ServesDesign {
 			fmt.Fprintf(out, "- One unit out (%s): the rest serve design flow %s", uo.Removed, u.FormatFlow(p.DesignFlow))
 		} else {
@@ -304,4 +308,31 @@ func plural(n int, one, many string) string {
 		return "1 " + one
 	}
 	return fmt.Sprintf("%d %s", n, many)
+}
+
+// writePressure writes what the setpoint reset is worth and how the logged
+// DP compares with the modelled setpoint.
+func writePressure(out io.Writer, r *study.Result) {
+	lo, nr := r.Strategy(study.KeyLowest), r.Strategy(study.KeyNoReset)
+	dp := r.DP
+	if nr == nil && dp == nil {
+		return
+	}
+	heading(out, "Differential-pressure setpoint")
+	cur := r.Currency()
+	if nr != nil {
+		fmt.Fprintf(out, "- Setpoint reset: the lowest-power staging draws %s kWh/yr with the file's reset and %s kWh/yr at a fixed setpoint: the reset saves %s kWh/yr (%s %s/yr)\n",
+			study.Grouped(lo.Annual.Energy), study.Grouped(nr.Annual.Energy), study.Grouped(nr.Annual.Energy-lo.Annual.Energy),
+			study.Grouped(nr.Annual.Total-lo.Annual.Total), cur)
+	}
+	if dp != nil {
+		p := r.Plant
+		u, rho := p.Units, p.Fluid.Density
+		pu := u.PressureUnit()
+		fmt.Fprintf(out, "- Logged DP (%s intervals, %s h): mean %.1f %s against the modelled setpoint's %.1f %s at the same loads (%+.1f %s); above it by more than 5 %% for %.0f %% of those hours; largest difference %.1f %s\n",
+			study.Grouped(float64(dp.N)), study.Grouped(dp.Hours), u.PressureOut(dp.MeanLogged, rho), pu, u.PressureOut(dp.MeanModel, rho), pu,
+			u.PressureOut(dp.MeanDiff, rho), pu, 100*dp.AboveShare, u.PressureOut(dp.MaxAbs, rho), pu)
+		fmt.Fprintf(out, "  at the logged DP the lowest-power staging draws %s kWh/yr, at the modelled setpoint %s kWh/yr (%+s kWh/yr)\n",
+			study.Grouped(dp.EnergyAtLogged), study.Grouped(dp.EnergyAtSetpoints), study.Grouped(dp.EnergyAtLogged-dp.EnergyAtSetpoints))
+	}
 }

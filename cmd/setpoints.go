@@ -20,7 +20,8 @@ type SetpointsOptions struct {
 	Deadband  float64
 	UpDelay   time.Duration
 	DownDelay time.Duration
-	Basis     string
+	Signal    string // "" = chosen for the plant
+	Format    string // text, csv or json
 	JSON      bool
 }
 
@@ -40,13 +41,22 @@ each value; the order units come on and go off; and the failure response.
 The sequence is then run over the plant's load profile and its energy compared
 with the unconstrained optimum and with the plant's current thresholds.`,
 		Example: `  wattstage setpoints examples/chilled-water.yaml
-  wattstage setpoints examples/chilled-water-trend.yaml --basis speed
+  wattstage setpoints examples/chilled-water-trend.yaml --signal speed
+  wattstage setpoints examples/chilled-water.yaml --format csv
   wattstage setpoints examples/condenser-water.yaml --deadband 0.15 --down-delay 15m --json`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			opts.PlantPath = args[0]
-			if opts.Basis != "flow" && opts.Basis != "speed" {
-				return usageError{fmt.Errorf("--basis must be flow or speed")}
+			if opts.Signal != "" {
+				if _, err := optimize.ParseBasis(opts.Signal); err != nil {
+					return usageError{fmt.Errorf("--signal %q: give flow, speed or flow-and-speed", opts.Signal)}
+				}
+			}
+			if opts.JSON {
+				opts.Format = "json"
+			}
+			if opts.Format != "text" && opts.Format != "csv" && opts.Format != "json" {
+				return usageError{fmt.Errorf("--format %q: give text, csv or json", opts.Format)}
 			}
 			if opts.Deadband < 0 || opts.Deadband >= 0.5 {
 				return usageError{fmt.Errorf("--deadband %g: give a fraction from 0 to below 0.5 (0 = default)", opts.Deadband)}
@@ -61,8 +71,9 @@ with the unconstrained optimum and with the plant's current thresholds.`,
 	f.Float64Var(&opts.Deadband, "deadband", 0, "stage-down flow below stage-up, as a fraction of the stage-up flow (default 0.10)")
 	f.DurationVar(&opts.UpDelay, "up-delay", 0, "how long a stage-up condition must hold (default 5m)")
 	f.DurationVar(&opts.DownDelay, "down-delay", 0, "how long a stage-down condition must hold (default 10m)")
-	f.StringVar(&opts.Basis, "basis", "flow", "signal the sequence stages on when it is run over the profile: flow or speed")
-	f.BoolVar(&opts.JSON, "json", false, "write the setpoints and their energy price as JSON")
+	f.StringVar(&opts.Signal, "signal", "", "the one signal the sequence stages on: flow, speed or flow-and-speed (default: the most robust for the plant, with the reason)")
+	f.StringVar(&opts.Format, "format", "text", "text; csv (the staging table, stages, DP schedule and points list, one table per first-column name); or json")
+	f.BoolVar(&opts.JSON, "json", false, "the same as --format json")
 	return c
 }
 
@@ -76,34 +87,42 @@ func setpointsRun(opts *SetpointsOptions) error {
 		return badInput(err)
 	}
 	sp, err := optimize.DeriveSetpoints(in.Plant, optimize.SetpointOptions{Deadband: opts.Deadband,
-		UpDelay: opts.UpDelay, DownDelay: opts.DownDelay})
+		UpDelay: opts.UpDelay, DownDelay: opts.DownDelay, Signal: opts.Signal})
 	if err != nil {
 		return err
 	}
-	basis := optimize.FlowBasis
-	if opts.Basis == "speed" {
-		basis = optimize.SpeedBasis
+	if opts.Format == "csv" {
+		return sp.WriteCSV(opts.IO.Out)
 	}
-	price := optimize.PriceSequence(sp, in.Steps, basis)
-	if opts.JSON {
-		return writeJSON(opts.IO.Out, map[string]any{"setpoints": sp, "price": priceJSON(price),
-			"sequence_of_operation": sp.SequenceOfOperation(), "cautions": study.Cautions})
+	price := optimize.PriceSequence(sp, in.Steps, sp.Signal)
+	factor := study.PeriodOf(in.Steps, in.Plant.Profile.AnnualHours).Factor
+	if opts.Format == "json" {
+		doc := sp.SubmittalJSON()
+		doc["energy"] = priceJSON(price, factor)
+		doc["sequence_of_operation"] = sp.SequenceOfOperation()
+		doc["cautions"] = study.Cautions
+		return writeJSON(opts.IO.Out, doc)
 	}
 	out := opts.IO.Out
 	p := in.Plant
 	fmt.Fprintf(out, "Plant: %s\n", p.Name)
+	fmt.Fprintf(out, "Staging signal: %s (%s)\n", sp.Signal, sp.SignalWhy)
 	heading(out, "Staging setpoints (adjustable starting values)")
 	if err := sp.WriteTable(out); err != nil {
 		return err
 	}
+	fmt.Fprintf(out, "Flows are rounded to %s %s: the stages draw within %.1f %% of each other across each near-equal band.\n",
+		num(sp.Resolution(), 0), p.Units.FlowUnit(), 100*optimize.NearEqualTolerance)
 	if len(sp.Defaults) > 0 {
 		fmt.Fprintln(out)
 		for _, d := range sp.Defaults {
 			fmt.Fprintln(out, "default: "+d)
 		}
 	}
+	writeDPSchedule(out, sp)
 	writeOrder(out, p, sp)
-	heading(out, "Energy price of the sequence over the profile")
+	writePoints(out, sp)
+	heading(out, "Energy of the sequence over the profile, a year")
 	writeProfileLine(out, in)
 	t := newTable(out)
 	t.row("way of staging", "energy (kWh/yr)", "vs optimum (%)", "stage changes")
@@ -113,10 +132,10 @@ func setpointsRun(opts *SetpointsOptions) error {
 		}
 		return "—"
 	}
-	t.row("lowest power at every step", num(price.Optimum.KWh, 0), "0.00", changes(price.OptimumChanges))
-	t.row("derived sequence ("+basis.String()+" signal)", num(price.Sequence.KWh, 0), fmt.Sprintf("%+.2f", price.ExtraPct), changes(price.Sequence.Changes))
+	t.row("lowest power at every step", study.Grouped(factor*price.Optimum.KWh), "0.00", changes(price.OptimumChanges))
+	t.row("derived sequence ("+sp.Signal.String()+" signal)", study.Grouped(factor*price.Sequence.KWh), fmt.Sprintf("%+.2f", price.ExtraPct), changes(price.Sequence.Changes))
 	if price.HasCurrent {
-		t.row("current thresholds", num(price.Current.KWh, 0), fmt.Sprintf("%+.2f", price.CurrentExtraPct), changes(price.Current.Changes))
+		t.row("current sequence", study.Grouped(factor*price.Current.KWh), fmt.Sprintf("%+.2f", price.CurrentExtraPct), changes(price.Current.Changes))
 	}
 	t.flush()
 	if len(in.Steps) > 0 && in.Steps[0].Timed() {
@@ -124,10 +143,10 @@ func setpointsRun(opts *SetpointsOptions) error {
 			price.Cycling.PerDay, price.Cycling.MaxPerHour)
 		for _, m := range price.Cycling.Models {
 			if math.IsNaN(m.Allowed) {
-				fmt.Fprintf(out, "  %s: %d starts a year, at most %d in one hour (no NEMA MG 10 value for this motor)\n", m.Name, m.Starts, m.MaxPerHour)
+				fmt.Fprintf(out, "  %s: %d starts in the period, at most %d in one hour (no NEMA MG 10 value for this motor)\n", m.Name, m.Starts, m.MaxPerHour)
 				continue
 			}
-			fmt.Fprintf(out, "  %s: %d starts a year, at most %d in one hour, against %.1f starts per hour for its motor size (NEMA MG 10, values from memory)\n",
+			fmt.Fprintf(out, "  %s: %d starts in the period, at most %d in one hour, against %.1f starts per hour for its motor size (NEMA MG 10, values from memory)\n",
 				m.Name, m.Starts, m.MaxPerHour, m.Allowed)
 		}
 	}
@@ -140,12 +159,48 @@ func setpointsRun(opts *SetpointsOptions) error {
 	return nil
 }
 
-func priceJSON(pr optimize.SequencePrice) map[string]any {
-	m := map[string]any{"basis": pr.Basis.String(), "optimum_kwh": pr.Optimum.KWh, "sequence_kwh": pr.Sequence.KWh,
+// writeDPSchedule writes the differential-pressure setpoint against load.
+func writeDPSchedule(out io.Writer, sp *optimize.Setpoints) {
+	rows, _, proposed := sp.DPSchedule()
+	if rows == nil {
+		return
+	}
+	p := sp.Plant
+	u := p.Units
+	title := "Differential-pressure setpoint against load"
+	if proposed {
+		title += " (proposed reset: the plant file gives none)"
+	}
+	heading(out, title)
+	t := newTable(out)
+	t.row("plant flow ("+u.FlowUnit()+")", "setpoint ("+u.PressureUnit()+")", "setpoint ("+u.HeadUnit()+")", "head at the pumps ("+u.HeadUnit()+")")
+	for _, r := range rows {
+		t.row(study.Grouped(u.FlowOut(r.Flow)), num(u.PressureOut(r.Setpoint, p.Fluid.Density), 1), num(u.HeadOut(r.Setpoint), 1), num(u.HeadOut(r.PumpHead), 1))
+	}
+	t.flush()
+}
+
+// writePoints writes the points list the sequence needs.
+func writePoints(out io.Writer, sp *optimize.Setpoints) {
+	heading(out, "Points the sequence reads and writes")
+	t := newTable(out)
+	t.row("point", "type", "unit", "what it is")
+	for _, pt := range sp.PointsList() {
+		unit := pt.Unit
+		if unit == "" {
+			unit = "—"
+		}
+		t.row(pt.Name, pt.Kind, unit, pt.Description)
+	}
+	t.flush()
+}
+
+func priceJSON(pr optimize.SequencePrice, factor float64) map[string]any {
+	m := map[string]any{"signal": pr.Basis.String(), "optimum_kwh_per_yr": factor * pr.Optimum.KWh, "sequence_kwh_per_yr": factor * pr.Sequence.KWh,
 		"sequence_extra_pct": pr.ExtraPct, "optimum_changes": pr.OptimumChanges, "sequence_changes": pr.Sequence.Changes,
 		"changes_per_day": pr.Cycling.PerDay, "max_changes_in_an_hour": pr.Cycling.MaxPerHour, "warnings": pr.Warnings}
 	if pr.HasCurrent {
-		m["current_kwh"] = pr.Current.KWh
+		m["current_kwh_per_yr"] = factor * pr.Current.KWh
 		m["current_extra_pct"] = pr.CurrentExtraPct
 	}
 	return m

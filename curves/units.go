@@ -161,3 +161,28 @@ func (u UnitSystem) FormatFlow(q Flow) string {
 func (u UnitSystem) FormatHead(h Head) string {
 	return fmt.Sprintf("%.1f %s", u.HeadOut(h), u.HeadUnit())
 }
+
+// PressureUnit is the unit a setpoint at a DP sensor is written in: psi
+// for US units, kPa for SI.
+func (u UnitSystem) PressureUnit() string {
+	if u == SI {
+		return "kPa"
+	}
+	return "psi"
+}
+
+// PressureOut writes a head of a fluid of the given density as a pressure
+// in PressureUnit.
+func (u UnitSystem) PressureOut(h Head, density float64) float64 {
+	pa := HeadToPressure(h, density)
+	if u == SI {
+		return pa / KPa
+	}
+	return pa / PSI
+}
+
+// FormatPressure writes a head as a pressure and a head, e.g. "15.0 psi
+// (34.7 ft)".
+func (u UnitSystem) FormatPressure(h Head, density float64) string {
+	return fmt.Sprintf("%.1f %s (%.1f %s)", u.PressureOut(h, density), u.PressureUnit(), u.HeadOut(h), u.HeadUnit())
+}

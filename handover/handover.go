@@ -229,6 +229,9 @@ func checks(r *workbook.Report, res *study.Result) {
 		if !uo.ServesDesign {
 			verdict = "short of design flow"
 		}
+		if uo.Standby {
+			verdict += " (the standby unit takes the failed one's place)"
+		}
 		var loads []string
 		for _, un := range uo.AtMax.Units {
 			loads = append(loads, fmt.Sprintf("%.0f %%", 100*un.Load))

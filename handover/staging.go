@@ -2,7 +2,6 @@ package handover
 
 import (
 	"fmt"
-	"math"
 	"strings"
 
 	"wattstage/optimize"
@@ -17,19 +16,27 @@ func Staging(res *study.Result) workbook.Staging {
 	if sp == nil {
 		return workbook.Staging{Settings: []workbook.Quantity{{Label: "Setpoints", Text: "could not be derived: " + res.SetpointsError}}}
 	}
-	u := p.Units
 	var st workbook.Staging
-	speed := func(v float64) float64 {
-		if math.IsNaN(v) {
-			return math.NaN()
+	st.Signal, st.SignalRule = sp.Signal.String(), strings.ToUpper(sp.SignalWhy[:1])+sp.SignalWhy[1:]+"."
+	// The values the text and the CSV show: the chosen signal's only, the
+	// flows at the sequence's resolution.
+	rows := sp.Tables()[0].Rows
+	val := func(v any) float64 {
+		if f, ok := v.(float64); ok {
+			return f
 		}
-		return 100 * v
+		return 0 // not this signal: a gap on the sheet
 	}
-	for _, t := range sp.Transitions {
+	for i, t := range sp.Transitions {
+		up, down := rows[2*i], rows[2*i+1]
+		note := fmt.Sprintf("up set by %s; down set by %s", t.Up.Limit, t.Down.Limit)
+		if up[6] != nil {
+			note += fmt.Sprintf("; stages within %.1f %% of each other from %s to %s %s", 100*optimize.NearEqualTolerance,
+				study.Grouped(val(up[6])), study.Grouped(val(up[7])), p.Units.FlowUnit())
+		}
 		st.Rows = append(st.Rows, workbook.StagingRow{From: sum(t.Lower), To: sum(t.Upper), Units: optimize.StartStop(p, t.Start, t.Stop),
-			UpSpeed: speed(t.Up.Speed), UpFlow: u.FlowOut(t.Up.Flow), UpDelay: t.Up.Delay.Minutes(),
-			DownSpeed: speed(t.Down.Speed), DownFlow: u.FlowOut(t.Down.Flow), DownDelay: t.Down.Delay.Minutes(),
-			Note: fmt.Sprintf("up set by %s; down set by %s", t.Up.Limit, t.Down.Limit)})
+			UpSpeed: val(up[4]), UpFlow: val(up[3]), UpDelay: t.Up.Delay.Minutes(),
+			DownSpeed: val(down[4]), DownFlow: val(down[3]), DownDelay: t.Down.Delay.Minutes(), Note: note})
 	}
 	o := sp.Options
 	st.Settings = []workbook.Quantity{

@@ -89,6 +89,10 @@ func DeriveSetpoints(p *plant.Plant, opt SetpointOptions) (*Setpoints, error) {
 		d.stageDown(out.Transitions, i, lo)
 	}
 	d.fillStages(out, grid)
+	for i := range out.Transitions {
+		out.Transitions[i].Band = d.nearEqual(out.Transitions[i])
+	}
+	out.Signal, out.SignalWhy = chooseSignal(out, d.opt.Signal)
 	d.check(out)
 	if d.total >= 2 {
 		if c, err := CheckUnitOut(p, Options{CommonSpeed: true}); err == nil {

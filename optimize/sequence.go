@@ -17,13 +17,35 @@ const (
 	// SpeedBasis stages on the common speed signal of the running drive
 	// units; a transition without a usable speed value falls back to flow.
 	SpeedBasis
+	// FlowAndSpeedBasis stages up when either the flow or the speed stays
+	// above its stage-up value (whichever comes first protects capacity),
+	// and down only when both stay below their stage-down values (so a
+	// noisy flow meter alone cannot drop a unit); a transition without a
+	// usable speed value uses flow alone.
+	FlowAndSpeedBasis
 )
 
+// Bases lists the staging signals by their names.
+var Bases = []Basis{FlowBasis, SpeedBasis, FlowAndSpeedBasis}
+
 func (b Basis) String() string {
-	if b == SpeedBasis {
+	switch b {
+	case SpeedBasis:
 		return "speed"
+	case FlowAndSpeedBasis:
+		return "flow-and-speed"
 	}
 	return "flow"
+}
+
+// ParseBasis reads a staging signal's name.
+func ParseBasis(s string) (Basis, error) {
+	for _, b := range Bases {
+		if b.String() == s {
+			return b, nil
+		}
+	}
+	return FlowBasis, fmt.Errorf("optimize: staging signal %q: give flow, speed or flow-and-speed", s)
 }
 
 var _ Strategy = (*Sequenced)(nil)
@@ -152,17 +174,27 @@ func (q *Sequenced) serve(load curves.Flow, k int) Result {
 // above reports whether the stage-up condition of transition k holds.
 func (q *Sequenced) above(res Result, pumped curves.Flow, k int) bool {
 	t := q.Setpoints.Transitions[k]
-	if q.Basis == SpeedBasis && !math.IsNaN(t.Up.Speed) {
-		return commonSpeed(res, q.Setpoints.Plant) > t.Up.Speed
+	flow := pumped > t.Up.Flow
+	if q.Basis == FlowBasis || math.IsNaN(t.Up.Speed) {
+		return flow
 	}
-	return pumped > t.Up.Flow
+	speed := commonSpeed(res, q.Setpoints.Plant) > t.Up.Speed
+	if q.Basis == SpeedBasis {
+		return speed
+	}
+	return flow || speed
 }
 
 // below reports whether the stage-down condition of transition k holds.
 func (q *Sequenced) below(res Result, pumped curves.Flow, k int) bool {
 	t := q.Setpoints.Transitions[k]
-	if q.Basis == SpeedBasis && !math.IsNaN(t.Down.Speed) {
-		return commonSpeed(res, q.Setpoints.Plant) < t.Down.Speed
+	flow := pumped < t.Down.Flow
+	if q.Basis == FlowBasis || math.IsNaN(t.Down.Speed) {
+		return flow
 	}
-	return pumped < t.Down.Flow
+	speed := commonSpeed(res, q.Setpoints.Plant) < t.Down.Speed
+	if q.Basis == SpeedBasis {
+		return speed
+	}
+	return flow && speed
 }

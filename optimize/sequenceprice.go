@@ -32,7 +32,11 @@ func PriceSequence(sp *Setpoints, steps []Step, basis Basis) SequencePrice {
 	pr.OptimumChanges = opt.Changes
 	pr.ExtraPct = 100 * (pr.Sequence.KWh/pr.Optimum.KWh - 1)
 	if p.Sequence != nil {
-		pr.Current, pr.HasCurrent = Sum(NewStaged("current thresholds", p, *p.Sequence).Run(steps), steps), true
+		var cur Strategy = NewStaged("current thresholds", p, *p.Sequence)
+		if p.Sequence.ByBands() {
+			cur = NewBanded("current sequence", p, *p.Sequence)
+		}
+		pr.Current, pr.HasCurrent = Sum(cur.Run(steps), steps), true
 		pr.CurrentExtraPct = 100 * (pr.Current.KWh/pr.Optimum.KWh - 1)
 	}
 	for _, e := range []Energy{pr.Sequence, pr.Current} {

@@ -28,6 +28,9 @@ type SetpointOptions struct {
 	CapacityDelay time.Duration
 	// Points is the number of flow intervals of the staging scan. 0 = 240.
 	Points int
+	// Signal is the staging signal asked for: "flow", "speed" or
+	// "flow-and-speed"; "" = the most robust for the plant (chooseSignal).
+	Signal string
 }
 
 // DefaultSetpointOptions are the starting values of a derived sequence. The
@@ -79,6 +82,8 @@ func fillSetpointOptions(o SetpointOptions) (SetpointOptions, []string, error) {
 		return o, nil, fmt.Errorf("%w: capacity margin %g must be above 0 and below 0.5", ErrSetpoints, o.CapacityMargin)
 	case o.UpDelay < 0 || o.DownDelay < 0 || o.CapacityDelay < 0:
 		return o, nil, fmt.Errorf("%w: delays must not be negative", ErrSetpoints)
+	case o.Signal != "" && !validSignal(o.Signal):
+		return o, nil, fmt.Errorf("%w: staging signal %q: give flow, speed or flow-and-speed", ErrSetpoints, o.Signal)
 	case o.Points < 8:
 		return o, nil, fmt.Errorf("%w: the scan needs at least 8 flow intervals", ErrSetpoints)
 	}

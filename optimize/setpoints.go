@@ -82,6 +82,9 @@ type Transition struct {
 	// model is brought on next and which unit is dropped first.
 	UpOptions, DownOptions []Option
 	Notes                  []string
+	// Band is the flow range around the crossover where the two stages
+	// draw within NearEqualTolerance of each other; nil without a crossover.
+	Band *NearEqual
 }
 
 // Setpoints is a derived staging sequence.
@@ -95,4 +98,8 @@ type Setpoints struct {
 	Capacity    curves.Flow // most plant flow served on the system curve
 	OneOut      *UnitOutCheck
 	Warnings    []string
+	// Signal is the one signal the sequence stages on, and SignalWhy the
+	// reason it was chosen (or that it was asked for).
+	Signal    Basis
+	SignalWhy string
 }

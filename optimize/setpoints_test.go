@@ -601,8 +601,14 @@ func TestSequenceOfOperationText(t *testing.T) {
 	}
 	text := sp.SequenceOfOperation()
 	for _, tr := range sp.Transitions {
+		// Flows are written at the sequence's resolution (1 % of design
+		// flow or finer), with thousands separators.
 		for _, q := range []curves.Flow{tr.Up.Flow, tr.Down.Flow} {
-			if s := p.Units.FormatFlow(q); !strings.Contains(strings.ReplaceAll(text, "\n", " "), s) {
+			v := sp.FlowSetpoint(q)
+			if math.Abs(v-p.Units.FlowOut(q)) > sp.Resolution()/2+1e-9 {
+				t.Errorf("setpoint %v gpm is more than half a step from %v gpm", v, p.Units.FlowOut(q))
+			}
+			if s := thousands(v, 0) + " gpm"; !strings.Contains(strings.ReplaceAll(text, "\n", " "), s) {
 				t.Errorf("text lacks %s", s)
 			}
 		}

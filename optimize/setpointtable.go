@@ -10,31 +10,39 @@ import (
 	"wattstage/plant"
 )
 
-// WriteTable writes the staging table: the stages, then each change with
-// its stage-up and stage-down values in flow and speed terms, the delays
-// and the limit that sets each value. Units are in every header.
+// WriteTable writes the stages and the staging table from Tables, so the
+// text shows the very values the CSV and JSON exports carry: each change
+// on the chosen signal, the delay, the near-equal band and what sets the
+// value. Units are in every header.
 func (sp *Setpoints) WriteTable(w io.Writer) error {
 	u := sp.Plant.Units
 	fu := u.FlowUnit()
+	tables := sp.Tables()
 	tw := tabwriter.NewWriter(w, 2, 8, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintf(tw, "stage\trunning units\tfrom (%s)\tto (%s)\tspeed (%% rated)\tlimit at low end\t\n", fu, fu)
-	for _, st := range sp.Stages {
-		fmt.Fprintf(tw, "%d\t%s\t%.1f\t%.1f\t%s\t%s\t\n", st.Number, DescribeCounts(sp.Plant, st.Counts),
-			u.FlowOut(st.Low), u.FlowOut(st.High), speedRange(st.LowSpeed, st.HighSpeed), orDash(string(st.LowLimit)))
+	fmt.Fprintf(tw, "stage\truns\tfrom (%s)\tto (%s)\tspeed (%% rated)\t\n", fu, fu)
+	for i, st := range sp.Stages {
+		r := tables[1].Rows[i]
+		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%s\t\n", st.Number, r[1], thousands(r[2].(float64), 0), thousands(r[3].(float64), 0),
+			speedRange(st.LowSpeed, st.HighSpeed))
 	}
 	fmt.Fprintln(tw)
-	fmt.Fprintf(tw, "change\tstart / stop\tflow (%s)\tper unit (%s)\tdesign (%%)\tspeed before (%%)\tspeed after (%%)\tdelay (min)\tset by\t\n", fu, fu)
-	for _, t := range sp.Transitions {
-		fmt.Fprintf(tw, "%d → %d up\t%s\t%.1f\t%.1f\t%.1f\t%s\t%s\t%.0f\t%s\t\n", t.From, t.To, StartStop(sp.Plant, t.Start, t.Stop),
-			u.FlowOut(t.Up.Flow), u.FlowOut(t.Up.PerUnit), 100*t.Up.Design, pct(t.Up.Speed), pct(t.Up.After), t.Up.Delay.Minutes(), t.Up.Limit)
-		sl := string(t.Down.Limit)
-		if t.Down.SpeedLimit != t.Down.Limit {
-			sl += "; speed: " + string(t.Down.SpeedLimit)
+	fmt.Fprintf(tw, "change\tsignal\tflow (%s)\tspeed (%%)\tdelay (min)\tnear-equal band (%s)\tset by\taction\t\n", fu, fu)
+	for _, r := range tables[0].Rows {
+		band := "–"
+		if r[6] != nil {
+			band = thousands(r[6].(float64), 0) + "–" + thousands(r[7].(float64), 0)
 		}
-		fmt.Fprintf(tw, "%d → %d down\t%s\t%.1f\t%.1f\t%.1f\t%s\t%s\t%.0f\t%s\t\n", t.To, t.From, StartStop(sp.Plant, t.Stop, t.Start),
-			u.FlowOut(t.Down.Flow), u.FlowOut(t.Down.PerUnit), 100*t.Down.Design, pct(t.Down.Speed), pct(t.Down.SpeedAfter), t.Down.Delay.Minutes(), sl)
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%.0f\t%s\t%s\t%s\t\n", r[0], r[2], cellNum(r[3], 0), cellNum(r[4], 0), r[5], band, r[8], r[1])
 	}
 	return tw.Flush()
+}
+
+// cellNum writes a table value with thousands separators, "–" for none.
+func cellNum(v any, dec int) string {
+	if f, ok := v.(float64); ok {
+		return thousands(f, dec)
+	}
+	return "–"
 }
 
 func pct(v float64) string {

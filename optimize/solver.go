@@ -29,6 +29,9 @@ type Options struct {
 type Constraint struct {
 	Total  int   // exact number of running units; 0 = any
 	Counts []int // exact running units per model; nil = any
+	// Head is the head the system needs at the load, m, in place of the
+	// system curve's (a logged setpoint, say); 0 = the system curve.
+	Head curves.Head
 }
 
 // Solver finds the lowest-power way to serve a load on one plant. It is not
@@ -116,6 +119,9 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 		pumped = s.plant.MinFlow
 	}
 	hr := float64(s.plant.System.Required(load))
+	if c.Head > 0 {
+		hr = float64(c.Head)
+	}
 	res := Result{LoadFlow: load, PumpedFlow: pumped, BypassFlow: pumped - load,
 		RequiredHead: curves.Head(hr), Counts: make([]int, len(s.units))}
 	if pumped <= 0 {

@@ -25,6 +25,9 @@ func StepsFromTrend(points []profile.Point) []Step {
 			kw = float64(p.Power) / 1000
 		}
 		out[i] = Step{Time: p.Time, Load: p.Flow, Hours: p.Hours, MeasuredKW: kw}
+		if p.HasDP {
+			out[i].DP = p.DP
+		}
 	}
 	return out
 }

@@ -14,6 +14,7 @@ type Step struct {
 	Load       curves.Flow // flow through the load, m³/s
 	Hours      float64     // hours the step stands for
 	MeasuredKW float64     // measured total pump power, kW; NaN when not logged
+	DP         curves.Head // logged differential pressure at the sensor, as head, m; 0 when not logged
 }
 
 // Timed reports whether the step comes from a time-stamped trend.
@@ -93,14 +94,15 @@ func abs(v int) int {
 	return v
 }
 
-// Drives counts the units on variable-speed drives.
+// Drives counts the installed units on variable-speed drives, standby
+// units included.
 func Drives(p *plant.Plant) int { return drives(p) }
 
 func drives(p *plant.Plant) int {
 	n := 0
 	for _, m := range p.Models {
 		if m.Drive.Variable() {
-			n += m.Count
+			n += m.Installed() // a standby unit needs its drive too
 		}
 	}
 	return n
@@ -264,7 +266,7 @@ func PartialVariant(p *plant.Plant, withDrive []int, drive curves.Drive) *plant.
 			v := m
 			v.Count, v.Drive = d, curves.Rewire(m.Drive, drive)
 			if d < m.Count {
-				v.Name = m.Name + " (drive)"
+				v.Name, v.Tags = m.Name+" (drive)", nil
 			}
 			q.Models = append(q.Models, v)
 		}
@@ -272,7 +274,8 @@ func PartialVariant(p *plant.Plant, withDrive []int, drive curves.Drive) *plant.
 			f := m
 			f.Count, f.Drive = m.Count-d, curves.Rewire(m.Drive, curves.FixedSpeed{})
 			if d > 0 {
-				f.Name = m.Name + " (fixed)"
+				// The standby unit stays with the driven part.
+				f.Name, f.Tags, f.Standby = m.Name+" (fixed)", nil, 0
 			}
 			q.Models = append(q.Models, f)
 		}

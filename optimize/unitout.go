@@ -14,6 +14,9 @@ type UnitOutCheck struct {
 	Design       Result      // the state at design flow (Unmet with shortfall if not)
 	MaxFlow      curves.Flow // the largest load flow the rest serve on the system curve
 	AtMax        Result      // the state at MaxFlow
+	// Standby is true when the model has a unit in standby that takes the
+	// failed unit's place: the check is then made with the full duty count.
+	Standby bool
 }
 
 // CheckUnitOut removes one unit of the largest model (by BEP hydraulic
@@ -22,7 +25,7 @@ func CheckUnitOut(p *plant.Plant, opt Options) (UnitOutCheck, error) {
 	big, bp := -1, 0.0
 	total := 0
 	for i, m := range p.Models {
-		total += m.Count
+		total += m.Installed()
 		hp := float64(m.Pump.BEPFlow) * float64(m.Pump.BEPHead)
 		if hp > bp {
 			big, bp = i, hp
@@ -33,12 +36,15 @@ func CheckUnitOut(p *plant.Plant, opt Options) (UnitOutCheck, error) {
 	}
 	q := *p
 	q.Models = append([]plant.Model(nil), p.Models...)
-	q.Models[big].Count--
-	if q.Models[big].Count == 0 {
-		q.Models = append(q.Models[:big], q.Models[big+1:]...)
+	standby := p.Models[big].Standby > 0
+	if !standby {
+		q.Models[big].Count--
+		if q.Models[big].Count == 0 {
+			q.Models = append(q.Models[:big], q.Models[big+1:]...)
+		}
 	}
 	s := New(&q, opt)
-	c := UnitOutCheck{Removed: p.Models[big].Name}
+	c := UnitOutCheck{Removed: p.Models[big].Name, Standby: standby}
 	c.Design = s.Solve(p.DesignFlow)
 	c.ServesDesign = c.Design.Status == Served
 	// The largest flow served: bisection between 0 and twice design flow.

@@ -23,6 +23,8 @@
 //	pumps:                               # one entry per pump model
 //	  - name: CHWP-1..3
 //	    count: 3                         # identical installed units (default 1)
+//	    tags: [CHWP-1, CHWP-2, CHWP-3]   # optional: one tag per installed unit
+//	    standby: 0                       # optional: units held in standby, never planned
 //	    rated_speed: 1780                # rpm; also gives the motor's pole count
 //	    curve:                           # datasheet points at rated speed, rising flow
 //	      - {flow: 0,    head: 118}
@@ -56,6 +58,7 @@
 //	  design_head: 90                    # head at the pumps at design flow
 //	  dp_control:                        # closed loop held at a remote DP sensor, or …
 //	    control_head: 15 psi             # the setpoint at the sensor
+//	    sensor: far air handler          # optional: where the DP sensor is (for the sequence)
 //	    reset:                           # optional linear setpoint reset
 //	      low_flow: 40%                  # at and below this flow (or % of design flow) …
 //	      low_head: 8 psi                # … the control head is this,
@@ -99,11 +102,17 @@
 //	  discount_rate: 5%                  # real, per year; default 0 %
 //	  escalation: 2.5%                   # energy price, per year; default 0 %
 //
-//	sequence:                            # optional: the sequence the plant runs today
-//	  stage_up_speed: 95%                # add a unit above this speed …
+//	sequence:                            # optional: the sequence the plant runs today,
+//	  stage_up_speed: 95%                # either speed thresholds: add a unit above this speed …
 //	  stage_down_speed: 45%              # … drop one below this
 //	  stage_up_delay: 5                  # minutes (or "90 s"); default 0
 //	  stage_down_delay: 10
+//	  # or units by plant flow (a plant at fixed speed today, or staging on flow):
+//	  # running: 2                       # a fixed number always running, or
+//	  # bands:                           # units running below each flow, the last open
+//	  #   - {up_to: 1500, running: 1}
+//	  #   - {running: 2}
+//	  # fixed_speed: true                # across the line today; default true with running/bands
 //
 // Keys are fixed: a key the format does not know is an error, with the
 // nearest known key suggested. A key given with no value is an error too;

@@ -100,7 +100,24 @@ func checkFuzzPlant(t *testing.T, p *Plant) {
 	if p.Tariff.EnergyPrice < 0 || p.Tariff.Currency == "" {
 		t.Fatalf("tariff %+v", p.Tariff)
 	}
-	if s := p.Sequence; s != nil && !(s.StageDownSpeed > 0 && s.StageDownSpeed < s.StageUpSpeed) {
+	if s := p.Sequence; s != nil && !s.ByBands() && !(s.StageDownSpeed > 0 && s.StageDownSpeed < s.StageUpSpeed) {
 		t.Fatalf("sequence %+v", s)
+	}
+	if s := p.Sequence; s != nil && s.ByBands() {
+		duty := 0
+		for _, m := range p.Models {
+			duty += m.Count
+		}
+		for i, b := range s.Bands {
+			last := i == len(s.Bands)-1
+			if b.Running < 1 || b.Running > duty || last != (b.UpTo == 0) || i > 0 && !last && b.UpTo <= s.Bands[i-1].UpTo {
+				t.Fatalf("sequence bands %+v (%d on duty)", s.Bands, duty)
+			}
+		}
+	}
+	for i, m := range p.Models {
+		if m.Standby < 0 || m.Count < 1 || m.Tags != nil && len(m.Tags) != m.Installed() {
+			t.Fatalf("pumps[%d]: %d duty, %d standby, tags %v", i, m.Count, m.Standby, m.Tags)
+		}
 	}
 }

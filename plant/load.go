@@ -193,6 +193,7 @@ func (d *decoder) plant(root *yaml.Node) *Plant {
 	sys := d.system(d.required(top, "system", "the system (design flow and head, dp_control or fixed_curve)"))
 	if sys != nil {
 		p.System, p.DesignFlow, p.DesignHead, p.MinFlow = sys.curve, sys.designFlow, sys.designHead, sys.minFlow
+		p.DPSensor = sys.sensor
 	}
 	p.Profile = d.profile(d.required(top, "profile", "the load profile (bins or trend)"), sys)
 	p.Tariff = d.tariff(d.required(top, "tariff", "the tariff (at least energy_price and currency)"))
@@ -200,7 +201,7 @@ func (d *decoder) plant(root *yaml.Node) *Plant {
 		p.Retrofit, p.HasRetrofit = d.retrofit(n), true
 	}
 	if n := d.value(top, "sequence"); n != nil {
-		p.Sequence = d.staging(n, specs)
+		p.Sequence = d.staging(n, specs, sys)
 	}
 	for _, s := range specs {
 		if s != nil {

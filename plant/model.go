@@ -26,7 +26,8 @@ type Plant struct {
 	// HasRetrofit is true when the file has a retrofit section (Retrofit is
 	// the zero value otherwise).
 	HasRetrofit bool
-	Sequence    *Sequence // the plant's current staging thresholds; nil when not given
+	Sequence    *Sequence // the sequence the plant runs today; nil when not given
+	DPSensor    string    // where the differential-pressure sensor is, in the file's words; "" = not given
 
 	// Defaults lists, in plain words, every value the loader filled in because
 	// the file did not give it (e.g. "pumps[0].motor.full_load_efficiency:
@@ -42,8 +43,16 @@ type Plant struct {
 
 // Model is one pump model of which Count identical units are installed.
 type Model struct {
-	Name       string
-	Count      int
+	Name string
+	// Count is the number of identical units the plan may run: installed
+	// less those in standby.
+	Count int
+	// Standby is the number of further installed units held in standby:
+	// never planned, brought in when a duty unit fails. 0 = none.
+	Standby int
+	// Tags name the installed units (Count+Standby of them), in the order
+	// the file gives; nil = the model's name and a number (Model.Tag).
+	Tags       []string
 	RatedSpeed float64 // rpm
 	Pump       *curves.Pump
 	MinSpeed   float64     // fraction of rated speed
@@ -75,10 +84,40 @@ type Bin struct {
 	Hours float64     // h/yr
 }
 
-// Sequence is the plant's current common-speed staging sequence.
+// Sequence is how the plant runs today, in one of two forms: common-speed
+// staging on speed thresholds (StageUpSpeed > 0), or a number of units
+// running by plant-flow band (Bands; a fixed number always running is one
+// band), at fixed speed or on their drives.
 type Sequence struct {
-	StageUpSpeed      float64 // fraction of rated: add a unit when the speed stays above this
+	StageUpSpeed      float64 // fraction of rated: add a unit when the speed stays above this; 0 = not this form
 	StageDownSpeed    float64 // fraction of rated: drop a unit when the speed stays below this
 	StageUpDelayMin   float64 // minutes the condition must hold; 0 = none
 	StageDownDelayMin float64 // minutes
+
+	// Bands are the units running by plant flow, in increasing flow; the
+	// last band has no upper flow. Empty in the speed-threshold form.
+	Bands []SequenceBand
+	// FixedSpeed is true when the units run across the line today (a
+	// throttled plant before a drive retrofit) in the band form.
+	FixedSpeed bool
+}
+
+// SequenceBand is one band of the current sequence: Running units run while
+// the plant flow is below UpTo.
+type SequenceBand struct {
+	UpTo    curves.Flow // m³/s; 0 = no upper flow (the last band)
+	Running int
+}
+
+// ByBands reports whether the sequence gives units by flow band.
+func (s *Sequence) ByBands() bool { return len(s.Bands) > 0 }
+
+// RunningAt is the number of units the band form runs at a plant flow.
+func (s *Sequence) RunningAt(q curves.Flow) int {
+	for _, b := range s.Bands {
+		if b.UpTo == 0 || q < b.UpTo {
+			return b.Running
+		}
+	}
+	return s.Bands[len(s.Bands)-1].Running
 }

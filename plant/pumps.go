@@ -41,7 +41,7 @@ const (
 )
 
 var pumpKeys = []string{"name", "count", "rated_speed", "curve", "head_fit", "allow_rising", "speed_correction",
-	"min_speed", "max_speed", "min_flow", "runout", "motor", "drive", "branch_loss"}
+	"min_speed", "max_speed", "min_flow", "runout", "motor", "drive", "branch_loss", "tags", "standby"}
 
 // pumpSpec is a pump model while it is being read: the model and what is
 // still needed to finish it once the system is known.
@@ -125,6 +125,7 @@ func (d *decoder) pump(n *yaml.Node, path string) *pumpSpec {
 		m.Count = 1
 		d.defaultf(join(path, "count"), "1 installed unit")
 	}
+	d.tagsAndStandby(s)
 	if rn := d.required(f, "rated_speed", "the rated speed in rpm"); rn != nil {
 		v, _, ok := d.quantity(rn, join(path, "rated_speed"), "a speed in rpm", "rpm")
 		switch {

@@ -421,14 +421,30 @@ func (d *decoder) retrofit(n *yaml.Node) econ.Retrofit {
 	return r
 }
 
-var sequenceKeys = []string{"stage_up_speed", "stage_down_speed", "stage_up_delay", "stage_down_delay"}
+var sequenceKeys = []string{"stage_up_speed", "stage_down_speed", "stage_up_delay", "stage_down_delay", "running", "bands", "fixed_speed"}
 
-// staging reads the plant's current common-speed staging sequence.
-func (d *decoder) staging(n *yaml.Node, specs []*pumpSpec) *Sequence {
+// staging reads the sequence the plant runs today: speed thresholds, or
+// units running by flow band (a fixed number always running is one band).
+func (d *decoder) staging(n *yaml.Node, specs []*pumpSpec, sys *systemSpec) *Sequence {
 	const path = "sequence"
-	f := d.mapping(n, path, "stage_up_speed, stage_down_speed, stage_up_delay, stage_down_delay", sequenceKeys...)
+	f := d.mapping(n, path, "stage_up_speed and stage_down_speed, or running, or bands", sequenceKeys...)
 	if f == nil {
 		return nil
+	}
+	speedForm := f.has("stage_up_speed") || f.has("stage_down_speed")
+	bandForm := f.has("running") || f.has("bands")
+	switch {
+	case speedForm && bandForm:
+		d.errorf(f.node, path, "give speed thresholds (stage_up_speed, stage_down_speed) or units by flow (running or bands), not both")
+		return nil
+	case f.has("running") && f.has("bands"):
+		d.errorf(d.value(f, "bands"), join(path, "bands"), "give running (a fixed number of units) or bands, not both")
+		return nil
+	case bandForm:
+		return d.bandSequence(f, specs, sys)
+	}
+	if fn := d.value(f, "fixed_speed"); fn != nil {
+		d.errorf(fn, join(path, "fixed_speed"), "speed thresholds stage units on drives; fixed_speed goes with running or bands")
 	}
 	s := &Sequence{}
 	un := d.required(f, "stage_up_speed", "the speed above which a unit is added")
@@ -447,16 +463,7 @@ func (d *decoder) staging(n *yaml.Node, specs []*pumpSpec) *Sequence {
 		d.errorf(dn, join(path, "stage_down_speed"), "%s %% is not below the stage-up speed %s %%: the stage-down band must sit well below stage-up", fmtNum(100*down), fmtNum(100*up))
 	}
 	s.StageUpSpeed, s.StageDownSpeed = up, down
-	for _, k := range []struct {
-		key string
-		dst *float64
-	}{{"stage_up_delay", &s.StageUpDelayMin}, {"stage_down_delay", &s.StageDownDelayMin}} {
-		if v := d.value(f, k.key); v != nil {
-			*k.dst, _ = d.minutes(v, join(path, k.key))
-		} else if !f.has(k.key) {
-			d.defaultf(join(path, k.key), "0 min (none)")
-		}
-	}
+	d.sequenceDelays(f, s)
 	variable, known := false, len(specs) > 0
 	for _, sp := range specs {
 		if sp == nil || !sp.driveOK {
@@ -467,6 +474,102 @@ func (d *decoder) staging(n *yaml.Node, specs []*pumpSpec) *Sequence {
 	}
 	if known && !variable {
 		d.errorf(f.node, path, "a speed-based staging sequence needs variable-speed units; every pump here is fixed speed")
+	}
+	return s
+}
+
+// sequenceDelays reads the stage-up and stage-down delays.
+func (d *decoder) sequenceDelays(f *fields, s *Sequence) {
+	for _, k := range []struct {
+		key string
+		dst *float64
+	}{{"stage_up_delay", &s.StageUpDelayMin}, {"stage_down_delay", &s.StageDownDelayMin}} {
+		if v := d.value(f, k.key); v != nil {
+			*k.dst, _ = d.minutes(v, join("sequence", k.key))
+		} else if !f.has(k.key) {
+			d.defaultf(join("sequence", k.key), "0 min (none)")
+		}
+	}
+}
+
+// bandSequence reads units running by plant-flow band: running (one band)
+// or bands of {up_to, running}, the last without up_to.
+func (d *decoder) bandSequence(f *fields, specs []*pumpSpec, sys *systemSpec) *Sequence {
+	const path = "sequence"
+	s := &Sequence{FixedSpeed: true}
+	duty := 0
+	for _, sp := range specs {
+		if sp == nil {
+			return nil
+		}
+		duty += sp.model.Count
+	}
+	count := func(n *yaml.Node, p string) (int, bool) {
+		v, ok := d.integer(n, p)
+		if ok && (v < 1 || v > duty) {
+			d.errorf(n, p, "%d units running: give from 1 to the %d on duty (standby units are not run)", v, duty)
+			return 0, false
+		}
+		return v, ok
+	}
+	ok := true
+	if rn := d.value(f, "running"); rn != nil {
+		v, vok := count(rn, join(path, "running"))
+		s.Bands, ok = []SequenceBand{{Running: v}}, vok
+	} else {
+		items, iok := d.sequence(d.value(f, "bands"), join(path, "bands"), "bands of up_to and running")
+		if !iok || len(items) == 0 {
+			if iok {
+				d.errorf(d.value(f, "bands"), join(path, "bands"), "give at least one band")
+			}
+			return nil
+		}
+		var last curves.Flow
+		for i, it := range items {
+			bp := index(join(path, "bands"), i)
+			bf := d.mapping(it, bp, "a band: up_to and running", "up_to", "running")
+			if bf == nil {
+				ok = false
+				continue
+			}
+			b := SequenceBand{}
+			if v, vok := count(d.required(bf, "running", "the units running in the band"), join(bp, "running")); vok {
+				b.Running = v
+			} else {
+				ok = false
+			}
+			un := d.value(bf, "up_to")
+			switch {
+			case un == nil && i != len(items)-1:
+				d.errorf(it, join(bp, "up_to"), "missing: every band but the last needs the flow it runs up to")
+				ok = false
+			case un != nil && i == len(items)-1:
+				d.errorf(un, join(bp, "up_to"), "the last band runs at every higher flow: leave up_to out")
+				ok = false
+			case un != nil:
+				fv, fok := d.flow(un, join(bp, "up_to"), "design flow")
+				if !fok || fv.IsPct && (sys == nil || !sys.ok) {
+					ok = false
+					break
+				}
+				b.UpTo = fv.of(sys.designFlowOrZero())
+				if b.UpTo <= last {
+					d.errorf(un, join(bp, "up_to"), "%s is not above the band before (%s): give bands in increasing flow", d.fmtFlow(b.UpTo), d.fmtFlow(last))
+					ok = false
+				}
+				last = b.UpTo
+			}
+			s.Bands = append(s.Bands, b)
+		}
+	}
+	if fn := d.value(f, "fixed_speed"); fn != nil {
+		s.FixedSpeed, _ = d.boolean(fn, join(path, "fixed_speed"))
+	} else if !f.has("fixed_speed") {
+		d.defaultf(join(path, "fixed_speed"), "true: the units run across the line today (a throttled plant before a drive retrofit)")
+	}
+	d.sequenceDelays(f, s)
+	if !ok {
+		return nil
 	}
 	return s
 }

@@ -14,7 +14,8 @@ type systemSpec struct {
 	minFlow    curves.Flow
 	flowNode   *yaml.Node
 	headNode   *yaml.Node
-	ok         bool // design flow and head are both valid
+	ok         bool   // design flow and head are both valid
+	sensor     string // dp_control.sensor: where the DP sensor is
 }
 
 var systemKeys = []string{"design_flow", "design_head", "dp_control", "fixed_curve", "plant_min_flow"}
@@ -73,9 +74,12 @@ func (d *decoder) system(n *yaml.Node) *systemSpec {
 // dpControl reads differential-pressure control with optional reset.
 func (d *decoder) dpControl(n *yaml.Node, s *systemSpec) curves.System {
 	const path = "system.dp_control"
-	f := d.mapping(n, path, "control_head and optionally reset", "control_head", "reset")
+	f := d.mapping(n, path, "control_head and optionally reset and sensor", "control_head", "reset", "sensor")
 	if f == nil {
 		return nil
+	}
+	if sn := d.value(f, "sensor"); sn != nil {
+		s.sensor, _ = d.text(sn, join(path, "sensor"))
 	}
 	cn := d.required(f, "control_head", "the control head (setpoint at the sensor, as head or pressure)")
 	ch, ok := d.head(cn, join(path, "control_head"))

@@ -36,6 +36,7 @@ type JSON struct {
 type JSONUnits struct {
 	Flow      string `json:"flow"`
 	Head      string `json:"head"`
+	Pressure  string `json:"pressure"`
 	Power     string `json:"power"`
 	Energy    string `json:"energy"`
 	Currency  string `json:"currency"`
@@ -153,6 +154,20 @@ type JSONChecks struct {
 	OneUnitOut  *JSONUnitOut     `json:"one_unit_out"`
 	Calibration *JSONCalibration `json:"calibration"`
 	Binning     *JSONBinning     `json:"binning"`
+	LoggedDP    *JSONLoggedDP    `json:"logged_dp"`
+}
+
+// JSONLoggedDP sets a trend's logged DP against the modelled setpoint.
+type JSONLoggedDP struct {
+	N                 int     `json:"intervals"`
+	Hours             float64 `json:"hours"`
+	MeanLogged        float64 `json:"mean_logged_pressure"`
+	MeanModel         float64 `json:"mean_modelled_pressure"`
+	MeanDiff          float64 `json:"mean_difference_pressure"`
+	MaxAbs            float64 `json:"largest_difference_pressure"`
+	AboveShare        float64 `json:"share_of_hours_above"`
+	EnergyAtLogged    float64 `json:"annual_kwh_at_logged_dp"`
+	EnergyAtSetpoints float64 `json:"annual_kwh_at_modelled_setpoint"`
 }
 
 // JSONPartLoad is one ASHRAE 90.1 §6.5.4.2 style check.
@@ -320,6 +335,12 @@ func (r *Result) checksJSON() JSONChecks {
 	if cl := r.Calibration; cl != nil {
 		c.Calibration = &JSONCalibration{Strategy: cl.Strategy, N: cl.N, MeanKW: cl.MeanKW, MeanErr: cl.MeanErr, NMBE: cl.NMBE,
 			CVRMSE: cl.CVRMSE, MaxAbs: cl.MaxAbs, Calibrated: cl.Calibrated()}
+	}
+	if d := r.DP; d != nil {
+		rho := r.Plant.Fluid.Density
+		c.LoggedDP = &JSONLoggedDP{N: d.N, Hours: d.Hours, MeanLogged: u.PressureOut(d.MeanLogged, rho), MeanModel: u.PressureOut(d.MeanModel, rho),
+			MeanDiff: u.PressureOut(d.MeanDiff, rho), MaxAbs: u.PressureOut(d.MaxAbs, rho), AboveShare: d.AboveShare,
+			EnergyAtLogged: d.EnergyAtLogged, EnergyAtSetpoints: d.EnergyAtSetpoints}
 	}
 	if b := r.Binning; b != nil {
 		c.Binning = &JSONBinning{Width: u.FlowOut(b.Width), Bins: b.Bins, EveryKWh: b.EveryKWh, BinnedKWh: b.BinnedKWh, CubeError: b.CubeError}

@@ -49,6 +49,9 @@ func Run(in *Input, opt Options) (*Result, error) {
 		r.Setpoints = sp
 	}
 	ks := Strategies(p, r.Setpoints)
+	if l := newLoggedDP(p, in.Steps); l != nil {
+		ks = append(ks, Keyed{KeyLoggedDP, l})
+	}
 	base := opt.Baseline
 	if base == "" {
 		base = DefaultBaseline(p)
@@ -98,6 +101,13 @@ func Run(in *Input, opt Options) (*Result, error) {
 		r.addRangeCase(rc)
 	}
 	r.runChecks(ks)
+	if c := compareDP(p, r.Steps); c != nil {
+		if s := r.Strategy(KeyLoggedDP); s != nil {
+			c.EnergyAtLogged = s.Annual.Energy
+		}
+		c.EnergyAtSetpoints = r.Strategies[0].Annual.Energy
+		r.DP = c
+	}
 	r.GroupPower = groupPower(p, ks)
 	r.gatherWarnings(in)
 	r.Recommendation = recommendation(r)
@@ -161,7 +171,12 @@ func samples(e Energy, steps []optimize.Step) []econ.Sample {
 // runChecks adds the part-load, one-unit-out, calibration and binning checks.
 func (r *Result) runChecks(ks []Keyed) {
 	p := r.Plant
-	if p.DesignFlow > 0 {
+	_, dpLoop := p.System.(curves.DPControl)
+	switch {
+	case !dpLoop:
+		r.PartLoad = append(r.PartLoad, PartLoadCheck{Label: "lowest-power staging", Limit: PartLoadLimit,
+			Note: "not applicable: §6.5.4.2 covers variable-flow hydronic systems under differential-pressure control; this plant serves a fixed system curve (open or static-plus-friction), whose flow the chillers or the process set"})
+	case p.DesignFlow > 0:
 		for _, k := range ks {
 			switch k.Key {
 			case KeyLowest:

@@ -3,6 +3,7 @@ package study
 import (
 	"fmt"
 
+	"wattstage/curves"
 	"wattstage/optimize"
 	"wattstage/plant"
 )
@@ -16,6 +17,8 @@ const (
 	KeyPartial   = "partial"
 	KeyThrottled = "throttled"
 	KeyBypass    = "bypass"
+	KeyNoReset   = "noreset"
+	KeyLoggedDP  = "loggeddp"
 )
 
 // DefaultBaseline is the strategy savings are counted against when none is
@@ -23,7 +26,7 @@ const (
 // runs on drives today: the question is tuning), else fixed speed with
 // throttling (the question is a drive retrofit).
 func DefaultBaseline(p *plant.Plant) string {
-	if p.Sequence != nil && optimize.Drives(p) > 0 {
+	if p.Sequence != nil {
 		return KeyCurrent
 	}
 	return KeyThrottled
@@ -44,8 +47,17 @@ func Strategies(p *plant.Plant, sp *optimize.Setpoints) []Keyed {
 		{KeyLowest, optimize.NewLowest("lowest-power staging", p, optimize.Options{})},
 		{KeyCommon, common},
 	}
-	if p.Sequence != nil && optimize.Drives(p) > 0 {
+	switch {
+	case p.Sequence == nil:
+	case p.Sequence.ByBands():
+		ks = append(ks, Keyed{KeyCurrent, optimize.NewBanded("current sequence", p, *p.Sequence)})
+	case optimize.Drives(p) > 0:
 		ks = append(ks, Keyed{KeyCurrent, optimize.NewStaged("current sequence", p, *p.Sequence)})
+	}
+	if v := withoutReset(p); v != nil {
+		l := optimize.NewLowest("lowest-power staging, no setpoint reset", v, optimize.Options{})
+		l.Note = "the lowest-power staging with the control head held at its design setpoint (no reset): the value of the reset itself"
+		ks = append(ks, Keyed{KeyNoReset, l})
 	}
 	if v, label := partialRetrofit(p); v != nil {
 		l := optimize.NewLowest(label, v, optimize.Options{})
@@ -57,7 +69,7 @@ func Strategies(p *plant.Plant, sp *optimize.Setpoints) []Keyed {
 		Keyed{KeyBypass, optimize.NewConstantBypass("constant flow, bypass", p)},
 	)
 	if sp != nil && len(sp.Transitions) > 0 {
-		ks = append(ks, Keyed{KeyDerived, optimize.NewSequenced("derived setpoints", sp, optimize.FlowBasis)})
+		ks = append(ks, Keyed{KeyDerived, optimize.NewSequenced("derived setpoints", sp, sp.Signal)})
 	}
 	return ks
 }
@@ -87,5 +99,22 @@ func partialRetrofit(p *plant.Plant) (*plant.Plant, string) {
 	}
 	w[big]--
 	v := optimize.PartialVariant(p, w, p.Models[big].Drive)
-	return v, fmt.Sprintf("drives on %d of %d units", withDrive-1, total)
+	installed := 0
+	for _, m := range p.Models {
+		installed += m.Installed()
+	}
+	return v, fmt.Sprintf("drives on %d of %d units", optimize.Drives(v), installed)
+}
+
+// withoutReset returns the plant with its differential-pressure setpoint
+// held at the design control head, or nil when it has no reset.
+func withoutReset(p *plant.Plant) *plant.Plant {
+	dp, ok := p.System.(curves.DPControl)
+	if !ok || dp.Reset == nil {
+		return nil
+	}
+	q := *p
+	dp.Reset = nil
+	q.System = dp
+	return &q
 }

@@ -48,6 +48,9 @@ func (r *Result) gatherWarnings(in *Input) {
 		r.warn(SourceStudy, "the plant file has no retrofit section: savings are shown, but no investment, payback or NPV (add retrofit: with drive_cost and the other terms to appraise them)")
 	}
 	b := r.BaselineStrategy()
+	if p.Sequence == nil && b.Key == KeyThrottled {
+		r.warn(SourceStudy, "the plant file does not say how the plant runs today, so the baseline runs the fewest units that serve each flow at fixed speed: the lowest the baseline could be, so the savings are the least they could be (give sequence: running or bands to describe the units the operators run)")
+	}
 	for _, s := range r.Strategies {
 		if s.Key != b.Key && s.Energy.HoursUnmet > b.Energy.HoursUnmet {
 			r.warn(SourceStudy, "%s leaves %.0f h unmet (baseline %.0f h): its savings count energy it did not deliver",

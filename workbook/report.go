@@ -186,9 +186,12 @@ type UnitPoint struct {
 
 // Staging is the staging setpoints table and the sequence text.
 type Staging struct {
-	Rows     []StagingRow
-	Settings []Quantity // minimum speed, lead rotation interval, failure response…
-	Sequence []string   // the sequence of operation, one paragraph or step per entry
+	// Signal is the one signal the sequence stages on ("flow", "speed" or
+	// "flow-and-speed") and SignalRule how it is applied, in words.
+	Signal, SignalRule string
+	Rows               []StagingRow
+	Settings           []Quantity // minimum speed, lead rotation interval, failure response…
+	Sequence           []string   // the sequence of operation, one paragraph or step per entry
 }
 
 // StagingRow is one stage change between two running counts.
