@@ -204,3 +204,29 @@ func checkLoadPointsSheet(t *testing.T, rb *sheetReader, res *study.Result) {
 		}
 	}
 }
+
+// The workbook's Staging sheet states the same staging signal as the
+// sequence, and its stage-up flows are the sequence's (at its resolution).
+func TestStagingSheetSignal(t *testing.T) {
+	for _, name := range exampleFiles {
+		ex := loadExample(t, name)
+		sp := ex.result.Setpoints
+		word := sp.Signal.String()
+		if ex.report.Staging.Signal != word {
+			t.Errorf("%s: Staging sheet signal %q, sequence %q", name, ex.report.Staging.Signal, word)
+		}
+		rb := readBack(t, ex.report)
+		rows := rb.rows("Staging")
+		if len(rows) < 2 || !strings.Contains(strings.Join(rows[1], " "), "Staging signal: "+word+".") {
+			t.Errorf("%s: Staging sheet subtitle %v lacks the signal %q", name, rows[1], word)
+		}
+		for i, tr := range sp.Transitions {
+			if sp.Signal == optimize.SpeedBasis {
+				break
+			}
+			if got, want := ex.report.Staging.Rows[i].UpFlow, sp.FlowSetpoint(tr.Up.Flow); got != want {
+				t.Errorf("%s: stage-up flow %v on the sheet, %v in the sequence", name, got, want)
+			}
+		}
+	}
+}
