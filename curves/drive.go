@@ -60,11 +60,11 @@ func (FixedSpeed) Input(m Motor, shaft Power, _ float64) Chain {
 // DOEDrive is the US DOE pump test procedure default for a motor on a
 // continuous (variable-speed) control (10 CFR 431 subpart Y, appendix A):
 // combined motor and drive losses = z(R) · full-load motor losses with
-// z = A R² + B R + C by motor size. The split into motor and drive
-// efficiency uses the motor's own part-load model for the motor; where the
-// DOE combined loss is below the motor-alone loss (very light loads, an
-// artefact of the fit), all of it is shown as motor loss and the drive at
-// 100 %.
+// z = A R² + B R + C by motor size, floored so that it is never below the
+// motor's own part-load loss fed through a drive at the US DOE Motor
+// Systems Tip Sheet #11 efficiency (doeFloor): the appendix A fit drops
+// below the motor alone at light load. The split into motor and drive
+// efficiency uses the motor's own part-load model for the motor.
 type DOEDrive struct{}
 
 // DOEDriveCoefficients returns A, B, C of the DOE motor-and-drive loss factor
@@ -93,10 +93,22 @@ func (DOEDrive) Describe() string {
 	return "variable-speed drive, DOE default motor+drive part-load loss"
 }
 
-// Electrical is shaft + z(R) · full-load motor losses.
+// Electrical is shaft + z(R) · full-load motor losses, or the floor where
+// that is higher.
 func (DOEDrive) Electrical(m Motor, shaft Power, _ float64) Power {
 	r := float64(shaft) / float64(m.Rated)
-	return shaft + Power(DOEDriveLossFactor(m.Rated, r)*float64(m.FullLoadLoss()))
+	e := shaft + Power(DOEDriveLossFactor(m.Rated, r)*float64(m.FullLoadLoss()))
+	if shaft > 0 {
+		e = max(e, doeFloor(m, shaft))
+	}
+	return e
+}
+
+// DOEFloored reports whether the floor sets the DOE default's input at this
+// shaft power (the appendix A fit alone would give less).
+func DOEFloored(m Motor, shaft Power) bool {
+	r := float64(shaft) / float64(m.Rated)
+	return shaft > 0 && shaft+Power(DOEDriveLossFactor(m.Rated, r)*float64(m.FullLoadLoss())) < doeFloor(m, shaft)
 }
 
 func (d DOEDrive) Input(m Motor, shaft Power, speed float64) Chain {

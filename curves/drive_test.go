@@ -20,12 +20,16 @@ func TestDOEDriveWorkedCase(t *testing.T) {
 		name  string
 		shaft float64 // hp, pump shaft input on the DOE reference curve [C, D]
 		z     float64 // loss factor [C, D]
-		input float64 // driver input, hp [C, D]
+		input float64 // driver input by the appendix A polynomial, hp [C, D]
+		floor float64 // the motor alone, where it is above the polynomial: hp [D]; 0 = not floored
 	}{
-		{"25 % of BEP flow", 3.25452, 0.38599, 4.7782},
-		{"50 % of BEP flow", 10.41447, 0.64587, 12.9639},
-		{"75 % of BEP flow", 25.38526, 1.13673, 29.8724},
-		{"BEP", 52.07233, 1.83557, 59.3180},
+		// [D] at R = 0.043394 the DOE motor factor y = −0.4508R³ + 1.2399R²
+		// − 0.4301R + 0.6410 = 0.62463, so the motor alone takes 3.25452 +
+		// 0.62463 × 3.9474 = 5.7202 hp, above the polynomial's 4.7782 hp.
+		{"25 % of BEP flow", 3.25452, 0.38599, 4.7782, 5.7202},
+		{"50 % of BEP flow", 10.41447, 0.64587, 12.9639, 0},
+		{"75 % of BEP flow", 25.38526, 1.13673, 29.8724, 0},
+		{"BEP", 52.07233, 1.83557, 59.3180, 0},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -34,10 +38,22 @@ func TestDOEDriveWorkedCase(t *testing.T) {
 			if z := DOEDriveLossFactor(m.Rated, r); math.Abs(z-c.z) > 5e-6 {
 				t.Errorf("z(%.5f) = %.6f, want %.5f", r, z, c.z)
 			}
+			// The appendix A polynomial's driver input to the four decimals
+			// given: ±5e-5 hp.
+			poly := c.shaft + DOEDriveLossFactor(m.Rated, r)*float64(m.FullLoadLoss())/Horsepower
+			if math.Abs(poly-c.input) > 5e-5 {
+				t.Errorf("appendix A driver input %.5f hp, want %.4f hp", poly, c.input)
+			}
 			ch := DOEDrive{}.Input(m, Power(c.shaft*Horsepower), 1)
-			// Driver input to the four decimals given: ±5e-5 hp.
-			if got := float64(ch.Electrical) / Horsepower; math.Abs(got-c.input) > 5e-5 {
-				t.Errorf("driver input %.5f hp, want %.4f hp", got, c.input)
+			want := c.input
+			if c.floor > 0 {
+				want = c.floor
+			}
+			if got := float64(ch.Electrical) / Horsepower; math.Abs(got-want) > 5e-5 {
+				t.Errorf("driver input %.5f hp, want %.4f hp", got, want)
+			}
+			if floored := DOEFloored(m, Power(c.shaft*Horsepower)); floored != (c.floor > 0) {
+				t.Errorf("floored %v", floored)
 			}
 			if math.Abs(ch.Load-r) > 1e-12 {
 				t.Errorf("load %.6f, want %.6f", ch.Load, r)
@@ -297,6 +313,26 @@ func TestElectricalMatchesInput(t *testing.T) {
 			got, want := d.Electrical(m, shaft, speed), d.Input(m, shaft, speed).Electrical
 			if got != want {
 				t.Errorf("%s at load %.2f: Electrical %v, Input %v", d.Describe(), load, got, want)
+			}
+		}
+	}
+}
+
+// TestDOEFloorNeverBelowMotor: the DOE default motor-and-drive input is
+// never below the motor alone at the same load (the appendix A fit is, at
+// light load), for every size band and load up to the service factor.
+func TestDOEFloorNeverBelowMotor(t *testing.T) {
+	for _, hp := range []float64{3, 10, 30, 75, 200} {
+		m := Motor{Rated: Power(hp * Horsepower), FullLoadEff: 0.92}
+		for r := 0.005; r <= 1.15; r += 0.005 {
+			shaft := Power(r) * m.Rated
+			e := DOEDrive{}.Electrical(m, shaft, 1)
+			if alone := shaft + m.Loss(shaft); e < alone*(1-1e-12) {
+				t.Fatalf("%g hp at R %.3f: input %v W below the motor alone %v W", hp, r, e, alone)
+			}
+			ch := DOEDrive{}.Input(m, shaft, 1)
+			if ch.DriveEff > 1 || ch.MotorEff > 1 || math.Abs(float64(ch.Electrical-e)) > 1e-9*float64(e) {
+				t.Fatalf("%g hp at R %.3f: chain %+v, electrical %v", hp, r, ch, e)
 			}
 		}
 	}

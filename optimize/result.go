@@ -42,7 +42,7 @@ func (s *Solver) build(res Result, st *state) Result {
 	}
 	for _, un := range res.Units {
 		if _, doe := s.plant.Models[un.Model].Drive.(curves.DOEDrive); doe && un.DriveEff == 1 {
-			res.Warnings = append(res.Warnings, "drive efficiency shown as 100 %: at this light motor load the DOE combined motor-and-drive loss is below the motor's own loss (a limit of the DOE fit), so all of it is shown as motor loss")
+			res.Warnings = append(res.Warnings, "drive efficiency shown as 100 %: at this light motor load the DOE appendix A motor-and-drive fit falls below the motor's own loss, so the input is floored at the motor alone and the drive's own loss is not counted (the input is understated a little)")
 			break
 		}
 	}

@@ -258,7 +258,7 @@ func TestDefaults(t *testing.T) {
 		`name: "minimal-us" (from the file name)`,
 		"fluid: water at 68 °F (density 998.2 kg/m³, Kell 1975)",
 		"pumps[0].count: 1 installed unit",
-		"pumps[0].drive: variable speed with the US DOE default motor-and-drive part-load loss (10 CFR 431 subpart Y, appendix A)",
+		"pumps[0].drive: variable speed with the US DOE default motor-and-drive part-load loss (10 CFR 431 subpart Y, appendix A), floored at the motor's own part-load loss where the fit falls below it (light load)",
 		"pumps[0].min_speed: 30 % of rated speed (common practice; confirm pump, motor-cooling and drive minimums with their manufacturers)",
 		"pumps[0].max_speed: 100 % of rated speed",
 		"pumps[0].head_fit: quadratic (least squares)",

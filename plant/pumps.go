@@ -619,7 +619,7 @@ func (d *decoder) drive(n *yaml.Node, path string, s *pumpSpec) (curves.Drive, b
 			return curves.FixedSpeed{}, false, true
 		case "variable":
 			s.doeDrive = true
-			d.defaultf(path, "variable speed with the US DOE default motor-and-drive part-load loss (10 CFR 431 subpart Y, appendix A)")
+			d.defaultf(path, "variable speed with the US DOE default motor-and-drive part-load loss (10 CFR 431 subpart Y, appendix A), floored at the motor's own part-load loss where the fit falls below it (light load)")
 			return curves.DOEDrive{}, true, true
 		case "":
 			return curves.FixedSpeed{}, false, false
@@ -664,7 +664,7 @@ func (d *decoder) drive(n *yaml.Node, path string, s *pumpSpec) (curves.Drive, b
 	}
 	if !f.has("efficiency_table") && !f.has("iec_losses") {
 		s.doeDrive = true
-		d.defaultf(path, "variable speed with the US DOE default motor-and-drive part-load loss (10 CFR 431 subpart Y, appendix A)")
+		d.defaultf(path, "variable speed with the US DOE default motor-and-drive part-load loss (10 CFR 431 subpart Y, appendix A), floored at the motor's own part-load loss where the fit falls below it (light load)")
 	}
 	return curves.DOEDrive{}, true, ok
 }
