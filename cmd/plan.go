@@ -154,6 +154,7 @@ func writePlan(out io.Writer, r *study.Result) {
 	writeSavings(out, r)
 	writeRange(out, r)
 	writePressure(out, r)
+	writeRegions(out, r)
 	writeChecks(out, r)
 	if len(r.Warnings) > 0 {
 		heading(out, "Warnings and notes")
@@ -334,5 +335,31 @@ func writePressure(out io.Writer, r *study.Result) {
 			u.PressureOut(dp.MeanDiff, rho), pu, 100*dp.AboveShare, u.PressureOut(dp.MaxAbs, rho), pu)
 		fmt.Fprintf(out, "  at the logged DP the lowest-power staging draws %s kWh/yr, at the modelled setpoint %s kWh/yr (%+s kWh/yr)\n",
 			study.Grouped(dp.EnergyAtLogged), study.Grouped(dp.EnergyAtSetpoints), study.Grouped(dp.EnergyAtLogged-dp.EnergyAtSetpoints))
+	}
+}
+
+// writeRegions writes where each strategy runs its units, unit-hours a year.
+func writeRegions(out io.Writer, r *study.Result) {
+	heading(out, "Where the units run, unit-hours a year")
+	t := newTable(out)
+	t.row("strategy", "running (unit-h/yr)", "outside 70–120 % of BEP flow (unit-h/yr)", "share (%)", "above rated speed (unit-h/yr)", "into service factor (unit-h/yr)")
+	f := r.Period.Factor
+	for _, s := range r.Strategies {
+		g := s.Regions
+		share := "—"
+		if g.UnitHours > 0 {
+			share = fmt.Sprintf("%.0f", 100*g.OutsidePreferred/g.UnitHours)
+		}
+		t.row(s.Name, study.Grouped(g.UnitHours*f), study.Grouped(g.OutsidePreferred*f), share, study.Grouped(g.Overspeed*f), study.Grouped(g.Overload*f))
+	}
+	t.flush()
+	fmt.Fprintln(out, "The preferred operating region is 70–120 % of BEP flow at the unit's speed (ANSI/HI 9.6.3); no unit is planned below its minimum continuous stable flow or past runout (the allowable region), so none runs outside it.")
+	if lo, pr := r.Strategy(study.KeyLowest), r.Strategy(study.KeyPreferred); lo != nil && pr != nil && lo.Annual.Energy > 0 {
+		fmt.Fprintf(out, "Keeping every unit inside the preferred region costs %s kWh/yr (%+.1f %%) against the lowest-power staging",
+			study.Grouped(pr.Annual.Energy-lo.Annual.Energy), 100*(pr.Annual.Energy/lo.Annual.Energy-1))
+		if pr.Energy.HoursUnmet > lo.Energy.HoursUnmet {
+			fmt.Fprintf(out, ", and leaves %s h unmet", study.Grouped((pr.Energy.HoursUnmet-lo.Energy.HoursUnmet)*f))
+		}
+		fmt.Fprintln(out, ".")
 	}
 }

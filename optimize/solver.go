@@ -23,6 +23,11 @@ type Options struct {
 	// every running variable-speed unit, as many automation systems do. Off
 	// in the zero value: each model may run at its own speed.
 	CommonSpeed bool
+	// PreferredOnly keeps every unit inside its preferred operating region,
+	// 70–120 % of BEP flow at its speed (ANSI/HI 9.6.3), as further minimum
+	// and maximum flows. Off in the zero value (the allowable region, from
+	// the minimum continuous flow to runout).
+	PreferredOnly bool
 }
 
 // Constraint narrows the search of one solve.
@@ -59,7 +64,12 @@ type Solver struct {
 func New(p *plant.Plant, opt Options) *Solver {
 	s := &Solver{plant: p, opt: opt, rho: p.Fluid.Density}
 	for i := range p.Models {
-		s.units = append(s.units, newUnitModel(i, &p.Models[i], s.rho))
+		u := newUnitModel(i, &p.Models[i], s.rho)
+		if opt.PreferredOnly {
+			bep := float64(p.Models[i].Pump.BEPFlow)
+			u.qmin, u.qrun = math.Max(u.qmin, 0.7*bep), math.Min(u.qrun, 1.2*bep)
+		}
+		s.units = append(s.units, u)
 	}
 	s.combos = enumerate(p.Models)
 	s.varBuf = make([]int, 0, len(p.Models))

@@ -81,6 +81,16 @@ type JSONStrategy struct {
 	Savings            *JSONSavings    `json:"savings"`
 	Appraisal          *JSONAppraisal  `json:"appraisal"`
 	LoadPoints         []JSONLoadPoint `json:"load_points"`
+	Regions            JSONRegions     `json:"regions"`
+}
+
+// JSONRegions are a strategy's unit-hours a year by operating region.
+type JSONRegions struct {
+	UnitHours        float64 `json:"unit_hours"`
+	OutsidePreferred float64 `json:"outside_preferred_unit_hours"`
+	OutsideAllowable float64 `json:"outside_allowable_unit_hours"`
+	Overspeed        float64 `json:"above_rated_speed_unit_hours"`
+	Overload         float64 `json:"into_service_factor_unit_hours"`
 }
 
 // JSONSavings are a year's savings against the baseline.
@@ -282,6 +292,10 @@ func (r *Result) strategyJSON(s Strategy) JSONStrategy {
 		AnnualKWh: a.Energy, AnnualEnergyCost: a.EnergyCost, AnnualDemandCost: a.DemandCost, AnnualCost: a.Total,
 		AnnualEmissionsKg: a.Emissions, AnnualBilledDemand: a.BilledDemand, PeakKW: s.Energy.PeakKW,
 		LoadPoints: []JSONLoadPoint{}}
+	f := r.Period.Factor
+	g := s.Regions
+	js.Regions = JSONRegions{UnitHours: g.UnitHours * f, OutsidePreferred: g.OutsidePreferred * f, OutsideAllowable: g.OutsideAllowable * f,
+		Overspeed: g.Overspeed * f, Overload: g.Overload * f}
 	if r.Period.Timed {
 		n := s.Energy.Changes
 		js.StageChanges = &n

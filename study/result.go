@@ -70,6 +70,9 @@ type Strategy struct {
 	Appraisal *econ.Appraisal
 
 	LoadPoints []LoadPoint // the period, by load step or flow group
+	// Regions are the unit-hours of the period outside the preferred
+	// region, above rated speed and into the motor's service factor.
+	Regions Regions
 }
 
 // Savings are a strategy's annual savings against the baseline.

@@ -126,6 +126,7 @@ func (r *Result) runStrategy(k Keyed) (Strategy, error) {
 	s.Bill = bill
 	s.Annual = bill.Annualise(r.Period.Factor)
 	s.LoadPoints = loadPoints(r, run, s.Energy, bill)
+	s.Regions = regions(run, r.Steps)
 	return s, nil
 }
 

@@ -19,6 +19,7 @@ const (
 	KeyBypass    = "bypass"
 	KeyNoReset   = "noreset"
 	KeyLoggedDP  = "loggeddp"
+	KeyPreferred = "preferred"
 )
 
 // DefaultBaseline is the strategy savings are counted against when none is
@@ -59,6 +60,9 @@ func Strategies(p *plant.Plant, sp *optimize.Setpoints) []Keyed {
 		l.Note = "the lowest-power staging with the control head held at its design setpoint (no reset): the value of the reset itself"
 		ks = append(ks, Keyed{KeyNoReset, l})
 	}
+	pref := optimize.NewLowest("lowest-power staging inside the preferred region", p, optimize.Options{PreferredOnly: true})
+	pref.Note = "the lowest-power staging with every unit kept inside 70–120 % of BEP flow at its speed (ANSI/HI 9.6.3): what staying in the preferred region costs"
+	ks = append(ks, Keyed{KeyPreferred, pref})
 	if v, label := partialRetrofit(p); v != nil {
 		l := optimize.NewLowest(label, v, optimize.Options{})
 		l.Note = "lowest-power staging with one unit of the largest model left across the line (a partial drive retrofit)"

@@ -61,6 +61,15 @@ func (r *Result) gatherWarnings(in *Input) {
 		}
 	}
 	r.beatenNotes()
+	for _, s := range r.Strategies {
+		g, f := s.Regions, r.Period.Factor
+		if g.Overspeed > 0 {
+			r.warn(SourceStudy, "%s runs units above rated speed for %s unit-hours a year: confirm the pump, motor and coupling are rated for it", s.Name, Grouped(g.Overspeed*f))
+		}
+		if g.Overload > 0 {
+			r.warn(SourceStudy, "%s runs motors above their rated output (into the service factor) for %s unit-hours a year: confirm with the motor manufacturer, and that the drive is sized for the current", s.Name, Grouped(g.Overload*f))
+		}
+	}
 	if r.SetpointsError != "" {
 		r.warn(SourceSetpoints, "no staging setpoints derived: %s", r.SetpointsError)
 	} else {
