@@ -51,6 +51,14 @@ func (s *Solver) build(res Result, st *state) Result {
 			res.Warnings = append(res.Warnings, fmt.Sprintf("unit %d (%s) outside its preferred operating region (70–120 %% of BEP flow, ANSI/HI 9.6.3)",
 				j+1, s.plant.Models[un.Model].Name))
 		}
+		if un.Speed > 1+1e-9 {
+			res.Warnings = append(res.Warnings, fmt.Sprintf("unit %d (%s) above rated speed (%.1f %%): confirm the pump, motor and coupling are rated for it",
+				j+1, s.plant.Models[un.Model].Name, 100*un.Speed))
+		}
+		if un.Load > 1+1e-9 {
+			res.Warnings = append(res.Warnings, fmt.Sprintf("unit %d (%s) motor at %.0f %% of its rated output, into its service factor: confirm with the motor manufacturer",
+				j+1, s.plant.Models[un.Model].Name, 100*un.Load))
+		}
 	}
 	return res
 }

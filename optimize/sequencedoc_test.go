@@ -250,3 +250,24 @@ func TestTagsAndStandby(t *testing.T) {
 		t.Errorf("%d drives to buy, want 3 (the standby unit needs its drive too)", optimize.Drives(p))
 	}
 }
+
+// A state with a motor into its service factor says so: the chilled-water
+// example's two remaining units at their most flow run at 101 % of rated
+// output.
+func TestServiceFactorWarning(t *testing.T) {
+	p, _ := exampleSetpoints(t, "chilled-water.yaml")
+	uo, err := optimize.CheckUnitOut(p, optimize.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	over := false
+	for _, u := range uo.AtMax.Units {
+		over = over || u.Load > 1
+	}
+	if !over {
+		t.Fatal("no motor above rated output at the one-unit-out maximum: the test would not tell")
+	}
+	if !strings.Contains(strings.Join(uo.AtMax.Warnings, "\n"), "into its service factor") {
+		t.Errorf("warnings %q lack the service factor", uo.AtMax.Warnings)
+	}
+}

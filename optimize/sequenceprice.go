@@ -45,6 +45,26 @@ func PriceSequence(sp *Setpoints, steps []Step, basis Basis) SequencePrice {
 				e.Name, e.HoursUnmet, pr.Optimum.HoursUnmet))
 		}
 	}
+	var over, fast float64
+	for i, st := range steps {
+		for _, u := range seqRun.Points[i].Units {
+			if seqRun.Points[i].Status != Served {
+				continue
+			}
+			if u.Load > 1+1e-9 {
+				over += st.Hours
+			}
+			if u.Speed > 1+1e-9 {
+				fast += st.Hours
+			}
+		}
+	}
+	if over > 0 {
+		pr.Warnings = append(pr.Warnings, fmt.Sprintf("the derived sequence runs motors into their service factor for %.0f unit-hours over the profile: confirm with the motor manufacturer", over))
+	}
+	if fast > 0 {
+		pr.Warnings = append(pr.Warnings, fmt.Sprintf("the derived sequence runs units above rated speed for %.0f unit-hours over the profile: confirm the pump, motor and coupling are rated for it", fast))
+	}
 	for _, m := range cy.Models {
 		if m.Over {
 			pr.Warnings = append(pr.Warnings, fmt.Sprintf("%s: up to %d starts in one hour, above the %.1f per hour NEMA MG 10 guidance (from memory) for its motor; lengthen the delays or widen the deadband",
