@@ -197,3 +197,30 @@ func TestMotorTableOverride(t *testing.T) {
 		})
 	}
 }
+
+// TestIE3Defaults: IEC 60034-30-1 IE3 4-pole 50 Hz nominal efficiencies
+// (the table as reproduced in published summaries of the standard up to
+// 7.5 kW [C]; from memory above), the smaller size between two rows.
+func TestIE3Defaults(t *testing.T) {
+	for _, c := range []struct {
+		kw, want float64
+	}{
+		{0.75, 0.825}, {4, 0.886}, {7.5, 0.904}, // [C]
+		{30, 0.936}, {55, 0.946}, {250, 0.960}, // from memory
+		{9, 0.904}, // between 7.5 and 11 kW: the 7.5 kW row
+	} {
+		got, err := IE3Efficiency(Power(c.kw * KW))
+		if err != nil || math.Abs(got-c.want) > 1e-12 {
+			t.Errorf("%g kW: %v (%v), want %v", c.kw, got, err, c.want)
+		}
+	}
+	if _, err := IE3Efficiency(Power(0.5 * KW)); err == nil {
+		t.Error("0.5 kW: a default from outside the table")
+	}
+	// Synchronous speeds 3000/1500/1000 rpm on 50 Hz, 3600/1800/1200 on 60 Hz.
+	for rpm, hz := range map[float64]int{2950: 50, 1480: 50, 970: 50, 3550: 60, 1780: 60, 1170: 60} {
+		if got := SupplyHz(rpm); got != hz {
+			t.Errorf("%g rpm: %d Hz, want %d", rpm, got, hz)
+		}
+	}
+}

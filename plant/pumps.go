@@ -493,6 +493,22 @@ func (d *decoder) motor(n *yaml.Node, path string, s *pumpSpec) (curves.Motor, b
 		}
 		m.FullLoadEff = e
 		ok = ok && eok
+	} else if !f.has("full_load_efficiency") && rok && s.rpmOK && d.iecMotor(s) {
+		e, err := curves.IE3Efficiency(m.Rated)
+		if err != nil {
+			d.errorf(f.node, join(path, "full_load_efficiency"), "missing, and no default for a %s motor (the IE3 table covers 0.75–375 kW): give full_load_efficiency",
+				d.fmtPower(m.Rated))
+			ok = false
+		} else {
+			m.FullLoadEff = e
+			poles, _ := polesFor(s.model.RatedSpeed)
+			note := ""
+			if poles != 4 {
+				note = fmt.Sprintf("; the 4-pole value used for this %d-pole motor, whose IE3 value differs by about a point: give full_load_efficiency for a better figure", poles)
+			}
+			d.defaultf(join(path, "full_load_efficiency"), "%s %% (IEC 60034-30-1 IE3, 4-pole 50 Hz table, %s, the smaller table size when between two%s)",
+				fmtNum(100*e), d.fmtPower(m.Rated), note)
+		}
 	} else if !f.has("full_load_efficiency") && rok && s.rpmOK {
 		poles, pok := polesFor(s.model.RatedSpeed)
 		var err error
@@ -527,6 +543,9 @@ func (d *decoder) motor(n *yaml.Node, path string, s *pumpSpec) (curves.Motor, b
 		}
 		m.ServiceFactor = sf
 		ok = ok && sok
+	} else if !f.has("service_factor") && s.rpmOK && d.iecMotor(s) {
+		m.ServiceFactor = curves.IECServiceFactor
+		d.defaultf(join(path, "service_factor"), "1.0 (an IEC-rated motor has no service factor, common practice)")
 	} else if !f.has("service_factor") {
 		m.ServiceFactor = curves.DefaultServiceFactor
 		d.defaultf(join(path, "service_factor"), "%s (usual NEMA value for general-purpose motors, common practice)", fmtNum(curves.DefaultServiceFactor))
@@ -808,4 +827,12 @@ func (d *decoder) finishPump(s *pumpSpec) {
 			d.errorf(s.branch.node, join(path, "branch_loss.head"), "%s is not below the pump's head at that flow (about %s): check the value", d.fmtHead(s.branch.head), d.fmtHead(m.Pump.BEPHead))
 		}
 	}
+}
+
+// iecMotor reports whether a motor takes the IEC defaults: a file in SI
+// units, or a rated speed that belongs to a 50 Hz supply. A US file with a
+// 60 Hz speed takes the NEMA ones.
+func (d *decoder) iecMotor(s *pumpSpec) bool {
+	hz := curves.SupplyHz(s.model.RatedSpeed)
+	return hz != 0 && (d.units == curves.SI || hz == 50)
 }

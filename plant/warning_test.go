@@ -132,3 +132,26 @@ func TestWarningFormat(t *testing.T) {
 		}
 	}
 }
+
+// A motor on 50 Hz or in an SI file takes the IEC defaults: IE3 full-load
+// efficiency (IEC 60034-30-1, 4-pole 50 Hz table; 30 kW → 93.6 %, from
+// memory) and no service factor; a US file's 60 Hz motor the NEMA ones.
+func TestIECMotorDefaults(t *testing.T) {
+	p, err := Load("../examples/condenser-water.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	small := p.Models[1] // CWP-S: 30 kW, 2950 rpm, no efficiency given
+	if small.Motor.FullLoadEff != 0.936 || small.Motor.SF() != 1 {
+		t.Errorf("CWP-S motor %.3f, service factor %v; want IE3 93.6 %% and 1.0", small.Motor.FullLoadEff, small.Motor.SF())
+	}
+	us, err := Load("../examples/chilled-water.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	// 30 hp 4-pole NEMA Premium 93.6 % (10 CFR 431.25 Table 5, from memory
+	// for 30 hp) and the usual NEMA service factor 1.15 — the file gives 1.15.
+	if m := us.Models[0].Motor; m.FullLoadEff != 0.936 || m.SF() != 1.15 {
+		t.Errorf("CHWP motor %.3f, service factor %v", m.FullLoadEff, m.SF())
+	}
+}
