@@ -1,6 +1,7 @@
 package plant
 
 import (
+	"math"
 	"strings"
 	"testing"
 )
@@ -142,7 +143,7 @@ func TestIECMotorDefaults(t *testing.T) {
 		t.Fatal(err)
 	}
 	small := p.Models[1] // CWP-S: 30 kW, 2950 rpm, no efficiency given
-	if small.Motor.FullLoadEff != 0.936 || small.Motor.SF() != 1 {
+	if math.Abs(small.Motor.FullLoadEff-0.936) > 1e-12 || small.Motor.SF() != 1 {
 		t.Errorf("CWP-S motor %.3f, service factor %v; want IE3 93.6 %% and 1.0", small.Motor.FullLoadEff, small.Motor.SF())
 	}
 	us, err := Load("../examples/chilled-water.yaml")
@@ -151,7 +152,7 @@ func TestIECMotorDefaults(t *testing.T) {
 	}
 	// 30 hp 4-pole NEMA Premium 93.6 % (10 CFR 431.25 Table 5, from memory
 	// for 30 hp) and the usual NEMA service factor 1.15 — the file gives 1.15.
-	if m := us.Models[0].Motor; m.FullLoadEff != 0.936 || m.SF() != 1.15 {
+	if m := us.Models[0].Motor; math.Abs(m.FullLoadEff-0.936) > 1e-12 || m.SF() != 1.15 {
 		t.Errorf("CHWP motor %.3f, service factor %v", m.FullLoadEff, m.SF())
 	}
 }
