@@ -27,7 +27,10 @@ func onSignal(errw io.Writer) (stop func()) {
 			for _, n := range removed {
 				msg += "; removed the unfinished " + n
 			}
-			fmt.Fprintln(errw, msg+"; nothing was replaced")
+			if len(removed) > 0 {
+				msg += "; the earlier workbook, if any, is untouched"
+			}
+			fmt.Fprintln(errw, msg)
 			code := 128 + 15
 			if sig, ok := s.(syscall.Signal); ok {
 				code = 128 + int(sig)
