@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"syscall"
 	"testing"
@@ -237,4 +238,38 @@ func yamlQuote(s string) string {
 	}
 	b.WriteByte('"')
 	return b.String()
+}
+
+// nonFinite matches a NaN or an infinity as Go's fmt and strconv print them.
+var nonFinite = regexp.MustCompile(`\bNaN\b|[+-]Inf\b|\bInf\b`)
+
+// TestNoNonFiniteResults: issue 15, class 2 — nothing prints NaN or an
+// infinity as a result, in text or JSON, for every shipped and test plant
+// through every command.
+func TestNoNonFiniteResults(t *testing.T) {
+	var plants []string
+	for _, g := range []string{"examples/*.yaml", "testdata/plants/*.yaml"} {
+		m, err := filepath.Glob(filepath.Join(moduleRoot, g))
+		if err != nil {
+			t.Fatal(err)
+		}
+		plants = append(plants, m...)
+	}
+	if len(plants) < 5 {
+		t.Fatalf("only %d plants found", len(plants))
+	}
+	for _, p := range plants {
+		for _, args := range [][]string{
+			{"check", p}, {"plan", p}, {"plan", p, "--json"}, {"setpoints", p}, {"setpoints", p, "--json"},
+		} {
+			r := run(t, args...)
+			if r.code != 0 {
+				t.Errorf("%s", r.describe(args))
+				continue
+			}
+			if loc := nonFinite.FindStringIndex(r.out); loc != nil {
+				t.Errorf("%v prints %q: …%s…", args, r.out[loc[0]:loc[1]], r.out[max(0, loc[0]-60):min(len(r.out), loc[1]+20)])
+			}
+		}
+	}
 }
