@@ -74,6 +74,9 @@ func readPlantTrend(p *plant.Plant) (*profile.Trend, error) {
 	if err != nil {
 		return nil, badInput(err)
 	}
+	if err := tr.Plausible(p.TrendExpect()); err != nil {
+		return nil, badInput(err)
+	}
 	return tr, nil
 }
 

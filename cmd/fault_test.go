@@ -16,7 +16,8 @@ import (
 // and killed-while-writing cases, which run the command in a child process.
 
 // TestOutputUnderAFile: the workbook's folder is a regular file, so no file
-// can be made there. The run exits 1, says so, and creates nothing.
+// can be made there. The run exits 2 before any work (issue 15: the check
+// comes before the work), says so, and creates nothing.
 func TestOutputUnderAFile(t *testing.T) {
 	dir := t.TempDir()
 	copyExamples(t, dir)
@@ -28,7 +29,7 @@ func TestOutputUnderAFile(t *testing.T) {
 	out := filepath.Join(plain, "plan.xlsx")
 	args := []string{"plan", filepath.Join(dir, "chilled-water.yaml"), "-o", out}
 	r := run(t, args...)
-	if r.code != cmd.ExitFailure {
+	if r.code != cmd.ExitBadInput || r.out != "" {
 		t.Fatalf("%s", r.describe(args))
 	}
 	if !strings.Contains(r.err, out) || !strings.Contains(r.err, "is a file, not a folder") {
@@ -43,17 +44,17 @@ func TestOutputUnderAFile(t *testing.T) {
 }
 
 // TestOutputFolderMissing: the workbook's folder does not exist. The run
-// exits 1, names the folder, and does not create it.
+// exits 2 before any work, names the folder, and does not create it.
 func TestOutputFolderMissing(t *testing.T) {
 	dir := t.TempDir()
 	copyExamples(t, dir)
 	missing := filepath.Join(dir, "reports")
 	args := []string{"plan", filepath.Join(dir, "condenser-water.yaml"), "-o", filepath.Join(missing, "plan.xlsx")}
 	r := run(t, args...)
-	if r.code != cmd.ExitFailure {
+	if r.code != cmd.ExitBadInput || r.out != "" {
 		t.Fatalf("%s", r.describe(args))
 	}
-	if !strings.Contains(r.err, missing) || !strings.Contains(r.err, "no such file or directory") {
+	if !strings.Contains(r.err, missing) || !strings.Contains(r.err, "does not exist") {
 		t.Errorf("stderr does not name the missing folder:\n%s", r.err)
 	}
 	if _, err := os.Stat(missing); !os.IsNotExist(err) {

@@ -60,7 +60,7 @@ func TestPlanFlags(t *testing.T) {
 		t.Fatal(err)
 	}
 	got.IO = nil
-	want := cmd.PlanOptions{PlantPath: "p.yaml", Output: "w.xlsx", Force: true, Baseline: "current", BinWidth: "150", JSON: true}
+	want := cmd.PlanOptions{PlantPath: "p.yaml", Output: "w.xlsx", OutputSet: true, Force: true, Baseline: "current", BinWidth: "150", JSON: true}
 	if !reflect.DeepEqual(*got, want) {
 		t.Errorf("options %+v, want %+v", *got, want)
 	}

@@ -3,43 +3,40 @@ package cmd
 import (
 	"errors"
 	"fmt"
-	"os"
+	"io"
 	"path/filepath"
 	"strings"
+
+	"wattstage/workbook"
 )
 
-// checkOutputPath refuses a workbook path that is an input, has the wrong
-// extension, or exists without --force — before any work is done.
-func checkOutputPath(out, input string, force bool) error {
+// checkOutputPath refuses, before any work is done, a workbook path that
+// cannot take the workbook: -o given empty, a name not ending in .xlsx, an
+// input file, a folder, a link to nothing, a device or pipe, a folder that
+// does not exist, or an existing file without --force. Each is an input
+// error (exit 2). A spreadsheet lock file beside the path is warned about
+// on errw: the workbook is probably open.
+func checkOutputPath(errw io.Writer, out string, given bool, input string, force bool) error {
 	if out == "" {
+		if given {
+			return badInputf("-o: the workbook name is empty; give a file name such as plan.xlsx, or leave -o out")
+		}
 		return nil
 	}
 	if !strings.EqualFold(filepath.Ext(out), ".xlsx") {
 		return badInputf("-o %s: the workbook name must end in .xlsx", out)
 	}
-	if same(out, input) {
-		return badInputf("-o %s: the output would overwrite the input file", out)
-	}
-	if _, err := os.Stat(out); err == nil && !force {
+	err := workbook.CheckPath(out, workbook.Options{Force: force, InputPaths: []string{input}})
+	switch {
+	case errors.Is(err, workbook.ErrExists):
 		return badInputf("-o %s: the file exists; use --force to replace it", out)
-	} else if err != nil && !errors.Is(err, os.ErrNotExist) {
-		dir := filepath.Dir(out)
-		if st, derr := os.Stat(dir); derr == nil && !st.IsDir() {
-			return fmt.Errorf("-o %s: %s is a file, not a folder: the workbook cannot be written there", out, dir)
-		}
-		return fmt.Errorf("-o %s: %w", out, err)
+	case errors.Is(err, workbook.ErrSameAsInput):
+		return badInputf("-o %s: the output would overwrite the input file", out)
+	case err != nil:
+		return badInputf("-o %s: %s", out, strings.TrimPrefix(err.Error(), workbook.ErrBadPath.Error()+": "))
+	}
+	if lock := workbook.LockFile(out); lock != "" {
+		fmt.Fprintf(errw, "wattstage: warning: %s is there: %s is probably open in a spreadsheet; close it, or the new workbook may not be written or may be overwritten when the spreadsheet saves\n", lock, out)
 	}
 	return nil
-}
-
-// same reports whether two paths name the same file.
-func same(a, b string) bool {
-	aa, err1 := filepath.Abs(a)
-	bb, err2 := filepath.Abs(b)
-	if err1 == nil && err2 == nil && aa == bb {
-		return true
-	}
-	sa, err1 := os.Stat(a)
-	sb, err2 := os.Stat(b)
-	return err1 == nil && err2 == nil && os.SameFile(sa, sb)
 }

@@ -19,6 +19,7 @@ type PlanOptions struct {
 	IO        *IO
 	PlantPath string
 	Output    string // workbook path; empty = none
+	OutputSet bool   // -o was given (an empty -o is an error, not "none")
 	Force     bool
 	JSON      bool
 	Baseline  string
@@ -46,6 +47,7 @@ With -o the same goes into an Excel workbook to hand over.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			opts.PlantPath = args[0]
+			opts.OutputSet = c.Flags().Changed("output")
 			if runF != nil {
 				return runF(opts)
 			}
@@ -89,7 +91,7 @@ func planStudy(path, binWidth, baseline string, progress func(string, int, int))
 }
 
 func planRun(opts *PlanOptions) error {
-	if err := checkOutputPath(opts.Output, opts.PlantPath, opts.Force); err != nil {
+	if err := checkOutputPath(opts.IO.Err, opts.Output, opts.OutputSet, opts.PlantPath, opts.Force); err != nil {
 		return err
 	}
 	var progress func(string, int, int)

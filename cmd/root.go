@@ -40,14 +40,35 @@ func badInput(err error) error { return inputError{err} }
 func badInputf(format string, a ...any) error { return inputError{fmt.Errorf(format, a...)} }
 
 // Main runs the command line and returns the exit code.
+//
+// Everything written to out and errw goes through a writer that escapes
+// terminal control characters, and a failed write to out (a full device, a
+// closed pipe) makes the exit code 1. SIGINT and SIGTERM remove the
+// temporary file of a workbook being written before the process exits.
 func Main(args []string, in io.Reader, out, errw io.Writer) int {
-	streams := &IO{In: in, Out: out, Err: errw, Terminal: isTerminal(errw)}
+	terminal := isTerminal(errw)
+	sout, serr := newSafeWriter(out, false), newSafeWriter(errw, true)
+	defer serr.flush()
+	stop := onSignal(serr)
+	defer stop()
+	streams := &IO{In: in, Out: sout, Err: serr, Terminal: terminal}
 	root := NewRootCmd(streams)
 	root.SetArgs(args)
 	root.SetIn(in)
-	root.SetOut(out)
-	root.SetErr(errw)
-	err := root.Execute()
+	root.SetOut(sout)
+	root.SetErr(serr)
+	code := exitCode(serr, root.Execute())
+	if ferr := sout.flush(); ferr != nil {
+		fmt.Fprintln(serr, "wattstage: writing standard output:", ferr)
+		if code == ExitOK {
+			code = ExitFailure
+		}
+	}
+	return code
+}
+
+// exitCode reports err on errw and returns the exit code it means.
+func exitCode(errw io.Writer, err error) int {
 	if err == nil {
 		return ExitOK
 	}

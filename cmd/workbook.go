@@ -3,6 +3,7 @@ package cmd
 import (
 	"errors"
 	"fmt"
+	"strings"
 
 	"wattstage/handover"
 	"wattstage/study"
@@ -25,6 +26,8 @@ func writeWorkbook(path, input string, force bool, res *study.Result) error {
 		return badInputf("-o %s: the file exists; use --force to replace it", path)
 	case errors.Is(err, workbook.ErrSameAsInput):
 		return badInputf("-o %s: the output would overwrite an input file", path)
+	case errors.Is(err, workbook.ErrBadPath):
+		return badInputf("-o %s: %s", path, strings.TrimPrefix(err.Error(), workbook.ErrBadPath.Error()+": "))
 	case err != nil:
 		return fmt.Errorf("writing the workbook %s: %w", path, err)
 	}

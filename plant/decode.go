@@ -258,6 +258,35 @@ func (d *decoder) text(n *yaml.Node, path string) (string, bool) {
 	return s, true
 }
 
+// Lengths of the names a plant file gives, in characters: longer ones do
+// not fit the columns and title rows of the text tables and the workbook
+// (a spreadsheet row is at most 409 points high).
+const (
+	MaxNameLen        = 200  // the plant's name
+	MaxModelNameLen   = 60   // a pump model's or a tariff period's name
+	MaxCurrencyLen    = 8    // the currency: an ISO 4217 code (USD) or a symbol
+	MaxDescriptionLen = 2000 // the plant's description
+)
+
+// label reads a one-line name of at most max characters: no line break
+// (LF, CR, NEL, U+2028, U+2029) that would split a table row. Other control
+// characters are accepted and escaped wherever text is printed.
+func (d *decoder) label(n *yaml.Node, path string, max int) (string, bool) {
+	s, ok := d.text(n, path)
+	if !ok {
+		return "", false
+	}
+	if i := strings.IndexAny(s, "\n\r\u0085\u2028\u2029"); i >= 0 {
+		d.errorf(n, path, "must be one line; it has a line break after %q", clip(s[:i]))
+		return "", false
+	}
+	if r := []rune(s); len(r) > max {
+		d.errorf(n, path, "is %d characters long; at most %d fit the reports", len(r), max)
+		return "", false
+	}
+	return s, true
+}
+
 // boolean reads true or false.
 func (d *decoder) boolean(n *yaml.Node, path string) (bool, bool) {
 	if n == nil {
@@ -289,6 +318,12 @@ func (d *decoder) number(n *yaml.Node, path string) (float64, bool) {
 		d.errorf(n, path, "must be a number, not %s", kindName(n))
 		return 0, false
 	}
+	if n.Tag == "!!int" && nonDecimal.MatchString(n.Value) {
+		var v int64
+		_ = n.Decode(&v)
+		d.errorf(n, path, "%s is not a decimal number: YAML reads a leading 0 (or 0o, 0x, 0b) as another base, here %d; write it without the leading zeros", n.Value, v)
+		return 0, false
+	}
 	var v float64
 	if err := n.Decode(&v); err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
 		d.errorf(n, path, "must be a finite number, not %q", clip(n.Value))
@@ -296,6 +331,10 @@ func (d *decoder) number(n *yaml.Node, path string) (float64, bool) {
 	}
 	return v, true
 }
+
+// nonDecimal matches the integers YAML reads in a base other than ten:
+// zero-padded ("0600", octal in YAML 1.1) and 0o, 0x or 0b prefixed.
+var nonDecimal = regexp.MustCompile(`^[-+]?0(?:[0-9_]+|[oOxXbB].*)$`)
 
 // integer reads a whole number.
 func (d *decoder) integer(n *yaml.Node, path string) (int, bool) {
@@ -313,6 +352,11 @@ func (d *decoder) integer(n *yaml.Node, path string) (int, bool) {
 // numberUnit matches a number followed by an optional unit: "15 psi",
 // "30%", "25 L/s".
 var numberUnit = regexp.MustCompile(`^([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)\s*(\S.*?)?\s*$`)
+
+// sepNumber matches a number written with a decimal comma or with
+// thousands separators ("600,5", "1,200", "1.200,5"), with or without a
+// unit after it.
+var sepNumber = regexp.MustCompile(`^\s*[-+]?[0-9]+(?:[.,][0-9]+)*,[0-9]+(?:[.,][0-9]+)*(?:\s*\S.*)?$`)
 
 // quantity reads a number with an optional unit suffix. units lists the
 // accepted suffixes (compared without case); the returned unit is the
@@ -340,6 +384,10 @@ func (d *decoder) quantity(n *yaml.Node, path, hint string, units ...string) (fl
 				if strings.EqualFold(normUnit(m[2]), normUnit(u)) {
 					return v, u, true
 				}
+			}
+			if sepNumber.MatchString(n.Value) {
+				d.errorf(n, path, "%q has a comma in the number: write a decimal point and no thousands separators (e.g. 1200.5)", clip(n.Value))
+				return 0, "", false
 			}
 			if len(units) == 0 {
 				d.errorf(n, path, "must be a plain number (%s), not %q", hint, clip(n.Value))
@@ -371,6 +419,19 @@ func orList(units []string) string {
 	}
 	return strings.Join(q[:len(q)-1], ", ") + " or " + q[len(q)-1]
 }
+
+// Upper bounds of the physical quantities a plant file gives, far above
+// any pump group's (the largest pumps move tens of m³/s; multistage
+// boiler-feed pumps reach a few thousand metres), so that no computation
+// with accepted values can overflow. Unit mistakes are caught well below
+// them by the plausibility checks (a pump ten times its motor, a design
+// flow ten times the units' capacity).
+const (
+	MaxFlow        curves.Flow  = 1000 // m³/s: any flow
+	MaxHead        curves.Head  = 1e4  // m: any head or pressure as head
+	MaxPower       curves.Power = 1e9  // W: a motor's rating or a shaft power
+	maxPercentFlow              = 1e4  // % of a base flow
+)
 
 // flowValue is a flow as written: an absolute flow, or a percentage of a
 // base flow (BEP or design) resolved later.
@@ -422,10 +483,18 @@ func (d *decoder) flow(n *yaml.Node, path, pctOf string) (flowValue, bool) {
 	switch u {
 	case "%":
 		fv.IsPct, fv.Pct = true, v
+		if v > maxPercentFlow {
+			d.errorf(n, path, "%s %% is above %s %%, the largest percentage of a flow accepted", fmtNum(v), fmtNum(maxPercentFlow))
+			return flowValue{}, false
+		}
 	case "L/s":
 		fv.Q = curves.Flow(v * curves.LPerS)
 	default:
 		fv.Q = d.units.FlowIn(v)
+	}
+	if fv.Q > MaxFlow {
+		d.errorf(n, path, "%s is above %s, the largest flow accepted (check the unit)", n.Value, d.fmtFlow(MaxFlow))
+		return flowValue{}, false
 	}
 	return fv, true
 }
@@ -452,15 +521,22 @@ func (d *decoder) head(n *yaml.Node, path string) (curves.Head, bool) {
 		d.errorf(n, path, "%s: a head must not be negative", n.Value)
 		return 0, false
 	}
+	var h curves.Head
 	switch u {
 	case "psi":
-		return curves.PressureToHead(v*curves.PSI, d.density), true
+		h = curves.PressureToHead(v*curves.PSI, d.density)
 	case "kPa":
-		return curves.PressureToHead(v*curves.KPa, d.density), true
+		h = curves.PressureToHead(v*curves.KPa, d.density)
 	case "ft":
-		return curves.Head(v * curves.Foot), true
+		h = curves.Head(v * curves.Foot)
+	default:
+		h = d.units.HeadIn(v)
 	}
-	return d.units.HeadIn(v), true
+	if h > MaxHead {
+		d.errorf(n, path, "%s is above %s, the largest head accepted (check the unit)", n.Value, d.fmtHead(MaxHead))
+		return 0, false
+	}
+	return h, true
 }
 
 // power reads a power in hp (US) or kW (SI); must be positive.
@@ -476,6 +552,10 @@ func (d *decoder) power(n *yaml.Node, path string) (curves.Power, bool) {
 	}
 	if v <= 0 {
 		d.errorf(n, path, "%s: a power must be greater than zero", n.Value)
+		return 0, false
+	}
+	if pw := d.units.RatingIn(v); pw > MaxPower {
+		d.errorf(n, path, "%s is above %s, the largest power accepted (check the unit)", n.Value, d.fmtPower(MaxPower))
 		return 0, false
 	}
 	return d.units.RatingIn(v), true
@@ -534,6 +614,9 @@ func (d *decoder) efficiency(n *yaml.Node, path string) (float64, bool) {
 	switch {
 	case e > 1:
 		d.errorf(n, path, "efficiency %s %% is above 100 %%", fmtNum(100*e))
+		return 0, false
+	case e == 1:
+		d.errorf(n, path, "efficiency 100 %% means no losses at all, which no pump, motor or drive reaches (and the loss models divide by the losses): give the datasheet value, below 100 %%")
 		return 0, false
 	case e <= 0:
 		d.errorf(n, path, "efficiency %s %% must be above 0 %%", fmtNum(100*e))

@@ -74,8 +74,8 @@
 //	  # trend:
 //	  #   file: chilled-water-trend.csv  # relative to the plant file
 //	  #   time_column: timestamp         # default the first column
-//	  #   time_format: "2006-01-02 15:04"   # Go layout or unix; default: common ones tried
-//	  #   time_zone: America/Chicago     # IANA zone of stamps without offset; default UTC
+//	  #   time_format: "2006-01-02 15:04"   # Go layout, unix, unix_ms or excel; default: tried
+//	  #   time_zone: America/Chicago     # IANA zone of stamps without offset (not Local); default UTC
 //	  #   interval: 60                   # minutes (or "15 min", "1 h"); default the median step
 //	  #   flow_column: plant_flow_gpm    # default the one header containing "flow"
 //	  #   flow_unit: gpm                 # gpm, m3/h or L/s; default read from the header
@@ -184,7 +184,66 @@
 // mistakes that show: a pump that would need ten times its motor at its
 // own BEP, or a design flow ten times what every unit can deliver. A file
 // larger than [MaxFileSize], an empty file and a binary file are refused
-// before the YAML parser sees them.
+// before the YAML parser sees them, with the line and column of the first
+// byte that is not text.
+//
+// # Ranges and limits
+//
+// Every number has a range; a value outside it is an error naming the
+// field. Money, flows, heads and powers are bounded far above any real
+// plant so that no accepted value can make a total overflow or print as
+// NaN or infinity; the plausibility checks above catch unit mistakes well
+// inside the bounds.
+//
+//	field                                   accepted
+//	pumps                                   1 to 12 models
+//	pumps[].count                           1 to 20 installed units
+//	pumps[].rated_speed                     100 to 10000 rpm
+//	pumps[].curve                           3 (4 for cubic) to 100 points, rising flow, falling head,
+//	                                        not all at the same head
+//	pumps[].curve[].efficiency              above 1 % and below 100 % (100 % has no losses:
+//	                                        no real pump, and the loss models divide by them)
+//	pumps[].min_speed, max_speed            above 0, max_speed at most 150 %
+//	pumps[].motor.full_load_efficiency      50 % to below 100 %
+//	pumps[].motor.service_factor            1.0 to 1.5
+//	pumps[].motor.part_load, drive tables   2 to 100 rows; efficiencies as above
+//	any flow                                0 to 1000 m³/s (15.85 million gpm); % forms up to 10000 %
+//	any head (or pressure as head)          0 to 10000 m (32808 ft)
+//	any power (motor rating, shaft power)   above 0 to 1 GW (1.34 million hp)
+//	fluid.temperature                       water 0–150 °C (Kell 1975); with specific_gravity −60–150 °C
+//	fluid.specific_gravity                  0.5 to 2
+//	profile.bins                            1 to 10000 bins, hours above 0, at most 8784 h in all
+//	profile.annual_hours                    above 0, at most 8784 h
+//	profile.trend.interval                  above 0, at most a day
+//	profile.trend.time_zone                 an IANA zone name or UTC; not Local
+//	tariff.energy_price, periods[].price    0 to 100000 per kWh
+//	tariff.demand_charge                    0 to 10000000 per kW
+//	tariff.emissions_factor                 0 to 2 kg CO2e per kWh
+//	tariff.periods                          at most 48; hours 0–24
+//	retrofit.drive_cost, other_cost         0 to 10¹² in the currency
+//	retrofit.life_years                     1 to 50
+//	retrofit.discount_rate                  0 to 50 % a year
+//	retrofit.escalation                     −50 to 50 % a year
+//	sequence stage speeds                   0 to 150 %
+//	name                                    one line, at most 200 characters
+//	pumps[].name, tariff.periods[].name     one line, at most 60 characters
+//	tariff.currency                         one line, at most 8 characters (USD, EUR, €)
+//	description                             at most 2000 characters
+//
+// Whole numbers are decimal: a zero-padded 0600 (octal in YAML) or a 0x,
+// 0o or 0b number is refused, as is a number with a comma ("600,5",
+// "1,200"). Control characters other than tab and line breaks are refused
+// where they stand raw in the file (YAML does not allow them); written as
+// escapes in a double-quoted name they are accepted and printed escaped.
+// A Unicode line separator (U+0085, U+2028, U+2029) is refused with its
+// line and column, since YAML would count it as a line break.
+//
+// # The file itself
+//
+// The plant file and its trend log must be regular files: a named pipe, a
+// device or a folder is refused before it is opened, so a read cannot wait
+// forever. A plant file is at most [MaxFileSize] bytes; UTF-8 (with or
+// without a byte-order mark) or UTF-16 with a byte-order mark.
 //
 // # Defaults and warnings
 //

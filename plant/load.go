@@ -11,6 +11,7 @@ import (
 	"regexp"
 	"strconv"
 	"strings"
+	"unicode/utf16"
 	"unicode/utf8"
 
 	"gopkg.in/yaml.v3"
@@ -30,7 +31,18 @@ var topKeys = []string{"name", "description", "units", "fluid", "pumps", "system
 // file (the trend log) are resolved against the file's folder. Every
 // problem is returned at once as an ErrorList; errors.Is(err, ErrInvalid)
 // is true for all of them, including a file that cannot be read.
+//
+// Only a regular file (or a link to one) is read: a named pipe, a device or
+// a folder is refused before it is opened, so that reading cannot wait
+// forever; the read stops after MaxFileSize bytes.
 func Load(path string) (*Plant, error) {
+	st, err := os.Stat(path)
+	if err != nil {
+		return nil, ErrorList{{File: path, Msg: "cannot read the plant file: " + describeFSError(err), Err: err}}
+	}
+	if !st.Mode().IsRegular() {
+		return nil, ErrorList{{File: path, Msg: fmt.Sprintf("is %s, not a regular file: give the plant file itself (a pipe or a device could keep the read waiting forever)", fileKind(st.Mode()))}}
+	}
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, ErrorList{{File: path, Msg: "cannot read the plant file: " + describeFSError(err), Err: err}}
@@ -41,6 +53,23 @@ func Load(path string) (*Plant, error) {
 		return nil, ErrorList{{File: path, Msg: "cannot read the plant file: " + describeFSError(err), Err: err}}
 	}
 	return Parse(path, data, filepath.Dir(path))
+}
+
+// fileKind names a file's type for a message.
+func fileKind(m os.FileMode) string {
+	switch {
+	case m.IsDir():
+		return "a folder"
+	case m&os.ModeNamedPipe != 0:
+		return "a named pipe (FIFO)"
+	case m&os.ModeCharDevice != 0:
+		return "a character device"
+	case m&os.ModeDevice != 0:
+		return "a block device"
+	case m&os.ModeSocket != 0:
+		return "a socket"
+	}
+	return "a special file"
 }
 
 // describeFSError words an fs error without repeating the path.
@@ -58,10 +87,10 @@ func describeFSError(err error) string {
 // does not check it).
 func Parse(name string, data []byte, dir string) (p *Plant, err error) {
 	d := &decoder{file: name, dir: dir, density: curves.ReferenceDensity}
-	if msg := checkBytes(data); msg != "" {
-		return nil, ErrorList{{File: name, Msg: msg}}
+	data, e := decodeText(name, data)
+	if e != nil {
+		return nil, ErrorList{e}
 	}
-	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	root, e := parseYAML(name, data)
 	if e != nil {
 		return nil, ErrorList{e}
@@ -74,29 +103,69 @@ func Parse(name string, data []byte, dir string) (p *Plant, err error) {
 	return p, nil
 }
 
-// checkBytes refuses empty, oversized and binary input before YAML sees it.
-func checkBytes(data []byte) string {
+// decodeText refuses empty, oversized and binary input before YAML sees
+// it, decodes UTF-16 with a byte-order mark (what "Unicode text" exports
+// write), drops a UTF-8 byte-order mark, and refuses what YAML would
+// misread or reject without saying where: an invalid UTF-8 byte, a control
+// character, or a Unicode line separator (U+0085, U+2028, U+2029), which
+// YAML takes for a line break and so shifts every line number after it.
+// Each refusal points at the line and column (in characters) of the byte.
+func decodeText(name string, data []byte) ([]byte, *Error) {
 	switch {
 	case len(data) > MaxFileSize:
-		return fmt.Sprintf("file is larger than the %d MiB limit for a plant file", MaxFileSize>>20)
-	case len(bytes.TrimSpace(data)) == 0:
-		return "file is empty: a plant file needs at least units, pumps, system, profile and tariff"
-	}
-	if i := bytes.IndexByte(data, 0); i >= 0 {
-		return fmt.Sprintf("file is not text (a zero byte at offset %d): is it a binary or UTF-16 file?", i)
-	}
-	if !utf8.Valid(data) {
-		off := 0
-		for off < len(data) {
-			r, n := utf8.DecodeRune(data[off:])
-			if r == utf8.RuneError && n <= 1 {
-				break
-			}
-			off += n
+		return nil, &Error{File: name, Msg: fmt.Sprintf("file is larger than the %d MiB limit for a plant file", MaxFileSize>>20)}
+	case bytes.HasPrefix(data, []byte{0xFF, 0xFE}), bytes.HasPrefix(data, []byte{0xFE, 0xFF}):
+		if len(data)%2 != 0 {
+			return nil, &Error{File: name, Msg: "file starts with a UTF-16 byte-order mark but has an odd number of bytes: save it again as UTF-8"}
 		}
-		return fmt.Sprintf("file is not UTF-8 text (invalid byte at offset %d)", off)
+		data = utf16ToUTF8(data)
 	}
-	return ""
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
+	if len(bytes.TrimSpace(data)) == 0 {
+		return nil, &Error{File: name, Msg: "file is empty: a plant file needs at least units, pumps, system, profile and tariff"}
+	}
+	if i := bytes.IndexByte(data, 0); i >= 0 && bytes.Count(data[:min(len(data), 8192)], []byte{0}) > 1 {
+		line, col := position(data, i)
+		return nil, &Error{File: name, Line: line, Column: col, Msg: "file is not text (zero bytes): is it a binary file, or UTF-16 without a byte-order mark? Save it as UTF-8"}
+	}
+	for off := 0; off < len(data); {
+		r, n := utf8.DecodeRune(data[off:])
+		line, col := position(data, off)
+		switch {
+		case r == utf8.RuneError && n <= 1:
+			return nil, &Error{File: name, Line: line, Column: col, Msg: fmt.Sprintf("byte 0x%02X is not UTF-8 text: save the file as UTF-8", data[off])}
+		case r == 0x85 || r == 0x2028 || r == 0x2029:
+			return nil, &Error{File: name, Line: line, Column: col, Msg: fmt.Sprintf("a Unicode line separator (U+%04X), which YAML reads as a line break: replace it with a space or a real line break", r)}
+		case r < 0x20 && r != '\t' && r != '\n' && r != '\r', r == 0x7f, r >= 0x80 && r <= 0x9f:
+			return nil, &Error{File: name, Line: line, Column: col, Msg: fmt.Sprintf("a control character (U+%04X) that YAML does not accept in a file: remove it, or write it as an escape (\\x%02X) inside double quotes", r, r)}
+		}
+		off += n
+	}
+	return data, nil
+}
+
+// utf16ToUTF8 decodes UTF-16 text after its byte-order mark.
+func utf16ToUTF8(data []byte) []byte {
+	big := data[0] == 0xFE
+	data = data[2:]
+	u := make([]uint16, len(data)/2)
+	for i := range u {
+		if big {
+			u[i] = uint16(data[2*i])<<8 | uint16(data[2*i+1])
+		} else {
+			u[i] = uint16(data[2*i+1])<<8 | uint16(data[2*i])
+		}
+	}
+	return []byte(string(utf16.Decode(u)))
+}
+
+// position returns the 1-based line and column (in characters) of byte
+// offset off in data.
+func position(data []byte, off int) (line, col int) {
+	before := data[:off]
+	line = bytes.Count(before, []byte("\n")) + 1
+	col = utf8.RuneCount(before[bytes.LastIndexByte(before, '\n')+1:]) + 1
+	return line, col
 }
 
 var (
@@ -150,10 +219,29 @@ func syntaxError(name string, data []byte, err error) *Error {
 		}
 	}
 	e.Msg = "YAML syntax: " + msg
-	if bytes.ContainsRune(data, '\t') && strings.Contains(msg, "cannot start any token") {
-		e.Msg += " (tabs are not allowed for indentation; use spaces)"
+	if strings.Contains(msg, "tab character") || strings.Contains(msg, "cannot start any token") {
+		// yaml.v3 names the line before a tab-indented one; point at the tab.
+		if line, col := firstIndentTab(data, max(1, e.Line-1)); line > 0 {
+			e.Line, e.Column = line, col
+			e.Msg = "YAML syntax: a tab in the indentation: YAML indents with spaces only"
+		}
 	}
 	return e
+}
+
+// firstIndentTab returns the line and column of the first tab in the
+// leading white space of a line at or after line from, or 0, 0.
+func firstIndentTab(data []byte, from int) (line, col int) {
+	for i, l := range bytes.Split(data, []byte("\n")) {
+		if i+1 < from {
+			continue
+		}
+		lead := len(l) - len(bytes.TrimLeft(l, " \t"))
+		if j := bytes.IndexByte(l[:lead], '\t'); j >= 0 {
+			return i + 1, j + 1
+		}
+	}
+	return 0, 0
 }
 
 // locate returns the 1-based line and column of the first occurrence of
@@ -178,13 +266,16 @@ func (d *decoder) plant(root *yaml.Node) *Plant {
 	p := &Plant{Source: d.file}
 	d.readUnits(top, p)
 	if n := d.value(top, "name"); n != nil {
-		p.Name, _ = d.text(n, "name")
+		p.Name, _ = d.label(n, "name", MaxNameLen)
 	} else {
 		p.Name = strings.TrimSuffix(filepath.Base(d.file), filepath.Ext(d.file))
 		d.defaultf("name", "%q (from the file name)", p.Name)
 	}
 	if n := d.value(top, "description"); n != nil {
 		p.Description, _ = d.text(n, "description")
+		if r := []rune(p.Description); len(r) > MaxDescriptionLen {
+			d.errorf(n, "description", "is %d characters long; at most %d fit the reports", len(r), MaxDescriptionLen)
+		}
 	}
 	p.Fluid = d.fluid(d.value(top, "fluid"), top.has("fluid"))
 	d.density = p.Fluid.Density

@@ -55,6 +55,7 @@ type pumpSpec struct {
 	minFlow      *flowValue
 	runout       *flowValue
 	branch       *branchSpec
+	headDegree   int // 2 or 3, as read from head_fit
 	motorOK      bool
 	ratedNode    *yaml.Node // motor.rated_output, for the motor size checks
 	driveNode    *yaml.Node
@@ -112,7 +113,7 @@ func (d *decoder) pump(n *yaml.Node, path string) *pumpSpec {
 	}
 	s := &pumpSpec{path: path, f: f}
 	m := &s.model
-	m.Name, _ = d.text(d.required(f, "name", "the pump model's name"), join(path, "name"))
+	m.Name, _ = d.label(d.required(f, "name", "the pump model's name"), join(path, "name"), MaxModelNameLen)
 	if c := d.value(f, "count"); c != nil {
 		if v, ok := d.integer(c, join(path, "count")); ok {
 			if v < 1 || v > maxCount {
@@ -263,12 +264,27 @@ func (d *decoder) curve(s *pumpSpec) {
 	if !ok || !optOK {
 		return
 	}
+	s.headDegree = opt.HeadDegree
+	if flatCurve(pts) {
+		d.errorf(n, cpath, "every point has the same head (%s): a flat head curve fixes no flow at any head, so parallel units cannot share the load; give the datasheet's falling curve", d.fmtHead(pts[0].Head))
+		return
+	}
 	pump, err := curves.NewPump(pts, opt)
 	if err != nil {
 		d.pumpErrors(s, err)
 		return
 	}
 	s.model.Pump = pump
+}
+
+// flatCurve reports whether every point has the same head.
+func flatCurve(pts []curves.PumpPoint) bool {
+	for _, p := range pts[1:] {
+		if p.Head != pts[0].Head {
+			return false
+		}
+	}
+	return true
 }
 
 func fitName(deg int) string {
@@ -407,6 +423,9 @@ func (d *decoder) curveMessage(s *pumpSpec, err error) string {
 	case errors.Is(err, curves.ErrBEPOutsidePoint):
 		return d.bepMessage(s)
 	case errors.Is(err, curves.ErrRisingHead):
+		if s.headDegree == 3 {
+			return "the fitted cubic head curve rises above its shutoff head between the points: check the heads, or set allow_rising: true if the datasheet really shows a rising curve"
+		}
 		return "the fitted head curve rises above its shutoff head between the points: check the heads, try head_fit: cubic, or set allow_rising: true if the datasheet really shows a rising curve"
 	case errors.Is(err, curves.ErrIllConditioned):
 		return "the points do not pin down a curve (the least-squares fit is ill-conditioned): spread the flows from near shutoff to runout"
@@ -519,6 +538,10 @@ func (d *decoder) motor(n *yaml.Node, path string, s *pumpSpec) (curves.Motor, b
 		case !pok:
 			d.errorf(f.node, join(path, "full_load_efficiency"), "missing, and no default: %s rpm is not the speed of a 2-, 4- or 6-pole motor on 50 or 60 Hz (give full_load_efficiency)",
 				fmtNum(s.model.RatedSpeed))
+			ok = false
+		case err != nil && m.Rated < curves.Horsepower:
+			d.errorf(rn, join(path, "rated_output"), "%s is smaller than any motor of the NEMA Premium table (1–500 hp), which gives the default efficiency: check the rating and its unit (%s), or give full_load_efficiency for a fractional-horsepower motor",
+				d.fmtPower(m.Rated), d.units.PowerUnit())
 			ok = false
 		case err != nil:
 			d.errorf(f.node, join(path, "full_load_efficiency"), "missing, and no default for a %s motor (the NEMA Premium table covers 1–500 hp): give full_load_efficiency",

@@ -3,6 +3,7 @@ package plant
 import (
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"time"
 
@@ -139,6 +140,8 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 				d.errorf(fn, join(path, "file"), "cannot read %s: %s (paths are relative to the plant file's folder)", p, describeFSError(err))
 			} else if st.IsDir() {
 				d.errorf(fn, join(path, "file"), "%s is a folder, not a CSV file", p)
+			} else if !st.Mode().IsRegular() {
+				d.errorf(fn, join(path, "file"), "%s is %s, not a regular file: give the trend log itself (a pipe or a device could keep the read waiting forever)", p, fileKind(st.Mode()))
 			}
 		}
 	}
@@ -162,7 +165,9 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 	}
 	if v := d.value(f, "time_zone"); v != nil {
 		if zone, ok := d.text(v, join(path, "time_zone")); ok {
-			if _, err := time.LoadLocation(zone); err != nil || zone == "" {
+			if strings.EqualFold(zone, "Local") {
+				d.errorf(v, join(path, "time_zone"), "Local is whatever zone the computer running wattstage is set to, so results would change from machine to machine: give the plant's IANA zone (e.g. America/Chicago) or UTC")
+			} else if _, err := time.LoadLocation(zone); err != nil || zone == "" {
 				d.errorf(v, join(path, "time_zone"), "%q is not a known IANA time zone (e.g. America/Chicago, Europe/Berlin)", zone)
 			}
 			t.TimeZone = zone
@@ -209,7 +214,8 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 
 // checkLayout refuses time formats that cannot be Go layouts.
 func checkLayout(layout string) string {
-	if layout == "unix" {
+	switch layout {
+	case "unix", "unix_ms", "excel":
 		return ""
 	}
 	if strings.Contains(layout, "%") {
@@ -249,13 +255,13 @@ func (d *decoder) tariff(n *yaml.Node) econ.Tariff {
 	if f == nil {
 		return t
 	}
-	t.Currency, _ = d.text(d.required(f, "currency", "the currency of the prices (e.g. USD, EUR)"), join(path, "currency"))
-	t.EnergyPrice = d.price(d.required(f, "energy_price", "the price per kWh (flat, or outside every period)"), join(path, "energy_price"))
+	t.Currency, _ = d.label(d.required(f, "currency", "the currency of the prices (e.g. USD, EUR)"), join(path, "currency"), MaxCurrencyLen)
+	t.EnergyPrice = d.price(d.required(f, "energy_price", "the price per kWh (flat, or outside every period)"), join(path, "energy_price"), MaxEnergyPrice)
 	if v := d.value(f, "periods"); v != nil {
 		t.Periods = d.periods(v, join(path, "periods"))
 	}
 	if v := d.value(f, "demand_charge"); v != nil {
-		t.DemandCharge = d.price(v, join(path, "demand_charge"))
+		t.DemandCharge = d.price(v, join(path, "demand_charge"), MaxDemandCharge)
 	} else if !f.has("demand_charge") {
 		d.defaultf(join(path, "demand_charge"), "none")
 	}
@@ -276,14 +282,37 @@ func (d *decoder) tariff(n *yaml.Node) econ.Tariff {
 	return t
 }
 
-// price reads a non-negative money amount.
-func (d *decoder) price(n *yaml.Node, path string) float64 {
+// Upper bounds of the money amounts a plant file gives, in its currency.
+// They are far above any real tariff or cost in any currency (an energy
+// price of a few thousand per kWh covers the currencies with the smallest
+// units) and keep every total a plan computes finite and printable.
+const (
+	MaxEnergyPrice  = 1e5  // per kWh: tariff.energy_price, tariff.periods[].price
+	MaxDemandCharge = 1e7  // per kW of a month's peak: tariff.demand_charge
+	MaxCost         = 1e12 // retrofit.drive_cost, retrofit.other_cost
+)
+
+// price reads a money amount from 0 to max.
+func (d *decoder) price(n *yaml.Node, path string, max float64) float64 {
 	v, ok := d.number(n, path)
-	if ok && v < 0 {
+	switch {
+	case ok && v < 0:
 		d.errorf(n, path, "%s: a price must not be negative", n.Value)
+		return 0
+	case ok && v > max:
+		d.errorf(n, path, "%s is above %s, the largest amount accepted here (check the unit: per kWh, per kW, or a cost)", n.Value, fmtGrouped(max))
 		return 0
 	}
 	return v
+}
+
+// fmtGrouped writes a whole number with thousands separators.
+func fmtGrouped(v float64) string {
+	s := strconv.FormatFloat(v, 'f', 0, 64)
+	for i := len(s) - 3; i > 0; i -= 3 {
+		s = s[:i] + "," + s[i:]
+	}
+	return s
 }
 
 // periods reads time-of-use periods and checks that none overlap.
@@ -307,9 +336,9 @@ func (d *decoder) periods(n *yaml.Node, path string) []econ.Period {
 			continue
 		}
 		var p econ.Period
-		p.Name, _ = d.text(d.required(f, "name", "the period's name"), join(pp, "name"))
+		p.Name, _ = d.label(d.required(f, "name", "the period's name"), join(pp, "name"), MaxModelNameLen)
 		names[i] = p.Name
-		p.Price = d.price(d.required(f, "price", "the price per kWh in the period"), join(pp, "price"))
+		p.Price = d.price(d.required(f, "price", "the price per kWh in the period"), join(pp, "price"), MaxEnergyPrice)
 		sn := d.required(f, "start_hour", "the first hour of the period (0–23)")
 		start, sok := d.integer(sn, join(pp, "start_hour"))
 		if sok && (start < 0 || start > 23) {
@@ -378,9 +407,9 @@ func (d *decoder) retrofit(n *yaml.Node) econ.Retrofit {
 	if f == nil {
 		return r
 	}
-	r.DriveCost = d.price(d.required(f, "drive_cost", "the installed cost of one drive"), join(path, "drive_cost"))
+	r.DriveCost = d.price(d.required(f, "drive_cost", "the installed cost of one drive"), join(path, "drive_cost"), MaxCost)
 	if v := d.value(f, "other_cost"); v != nil {
-		r.OtherCost = d.price(v, join(path, "other_cost"))
+		r.OtherCost = d.price(v, join(path, "other_cost"), MaxCost)
 	} else if !f.has("other_cost") {
 		d.defaultf(join(path, "other_cost"), "0")
 	}

@@ -15,17 +15,46 @@
 // line (of the first 50 non-blank ones) that names the flow column; lines
 // before it are skipped and counted. The delimiter is the one of comma,
 // semicolon, tab or bar that splits the header into the most fields; with a
-// semicolon or tab delimiter a decimal comma ("12,5") is read as a decimal
-// point. A UTF-8 byte-order mark is skipped, UTF-16 with a byte-order mark
-// is decoded, other invalid UTF-8 is read as Latin-1, and binary files
-// (NUL or control bytes, ZIP/xlsx, old Excel, gzip, PDF) are refused.
+// A UTF-8 byte-order mark is skipped, UTF-16 with a byte-order mark is
+// decoded, other invalid UTF-8 is read as Latin-1, and binary files (NUL or
+// control bytes, ZIP/xlsx, old Excel, gzip, PDF) are refused, as is a plant
+// file given where a trend belongs. Only regular files are read (a named
+// pipe or a device is refused before it is opened), of at most [MaxBytes]
+// bytes and [MaxRows] data lines.
+//
+// # Numbers
+//
+// Each numeric column's format is decided from all its cells: a cell with
+// both separators ("1.700,0", "1,700.0") shows that the last is the
+// decimal one, a separator used twice groups thousands, and one followed by
+// other than three digits is decimal. A cell against the column's format
+// is not a number (its row is counted). When no cell tells ("1.700" alone)
+// a point is decimal and a comma groups thousands in a comma-delimited file
+// (spreadsheets quote "1,234") or is decimal otherwise, with a warning.
+// Leading zeros ("0600") are decimal, with a warning, never octal.
 //
 // Timestamps follow the spec's Go layout, or else the common layout that
 // parses the most of the file's stamps (RFC 3339, ISO 8601 with a space or
 // T, year/month/day, US month/day/year with 24-hour or AM/PM clock,
-// day/month/year, day.month.year, 2-Jan-2006, or dates alone). When
+// day/month/year, day.month.year, 2-Jan-2006, or dates alone; ISO stamps
+// with an offset may leave out the seconds). Stamps that are all numbers
+// are read by their size, with a warning saying how: seconds (10⁸–10¹¹) or
+// milliseconds (10¹¹–10¹⁴) since 1970 UTC, or spreadsheet serial dates
+// (20000–110000 days since 1899-12-30, wall-clock time); the TimeFormats
+// "unix", "unix_ms" and "excel" say so explicitly. When
 // month/day and day/month fit the file equally, month/day is taken and a
-// warning says so. Stamps before 1970 or after 2199 are bad timestamps.
+// warning says so. Stamps before 1970 or after 2199 are bad timestamps,
+// and a log with more than a year between two stamps (one stray row a
+// century away) is refused, naming the rows. The TimeZone "Local" is
+// refused: results would depend on the machine.
+//
+// # Against the plant
+//
+// [Trend.Plausible] checks the flows against what the plant says: every
+// flow zero, or a median many times the pumps' capacity or a tiny fraction
+// of the design flow, is refused (naming a unit the numbers would fit);
+// a low median, top flows above capacity, flows all below the plant
+// minimum flow and a log mostly at zero flow are warned of.
 //
 // # Messy rows
 //

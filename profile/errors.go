@@ -19,6 +19,10 @@ var (
 	ErrMixedDelims   = errors.New("profile: mixed delimiters")
 	ErrInterval      = errors.New("profile: cannot find the logging interval")
 	ErrTimeFormat    = errors.New("profile: no timestamp in a known format")
+	ErrNotRegular    = errors.New("profile: not a regular file")
+	ErrTooManyRows   = errors.New("profile: too many rows")
+	ErrStrayStamp    = errors.New("profile: a stamp far from the rest of the log")
+	ErrImplausible   = errors.New("profile: flows do not fit the plant")
 )
 
 // Classes of error in a TrendSpec (not in the file). They come wrapped in a

@@ -22,8 +22,30 @@ const maxPreamble = 50
 // maxInterval is the longest logging interval accepted.
 const maxInterval = 31 * 24 * time.Hour
 
-// ReadTrendFile opens path and reads it with ReadTrend.
+// MaxRows is the most data lines a trend may have: two years of one-minute
+// rows (1,054,080) and a little more. It bounds the time and memory of
+// reading (with MaxBytes); a longer log can be resampled to a longer
+// interval first. Solving every interval of such a log is issue 13's
+// (the solver's own cost per interval), not bounded here.
+const MaxRows = 1_100_000
+
+// maxStampGap is the longest hole accepted between two stamps: a trend is
+// one continuous record, and a stamp more than a year from its neighbour
+// is a typing or export error (one stray row a century away), not data.
+const maxStampGap = 366 * 24 * time.Hour
+
+// ReadTrendFile opens path and reads it with ReadTrend. Only a regular
+// file (or a link to one) is read: a named pipe, a device or a folder is
+// refused before it is opened, so that the read cannot wait forever.
 func ReadTrendFile(spec TrendSpec, path string) (*Trend, error) {
+	st, err := os.Stat(path)
+	if err != nil {
+		return nil, err
+	}
+	if !st.Mode().IsRegular() {
+		return nil, &ParseError{File: path, Err: fmt.Errorf("%w: it is %s; give the trend log itself (a pipe or a device could keep the read waiting forever)",
+			ErrNotRegular, fileKind(st.Mode()))}
+	}
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, err
@@ -77,8 +99,28 @@ type reader struct {
 	hdrLine, hdrStarts int
 }
 
+// fileKind names a file's type for a message.
+func fileKind(m os.FileMode) string {
+	switch {
+	case m.IsDir():
+		return "a folder"
+	case m&os.ModeNamedPipe != 0:
+		return "a named pipe (FIFO)"
+	case m&os.ModeCharDevice != 0:
+		return "a character device"
+	case m&os.ModeDevice != 0:
+		return "a block device"
+	case m&os.ModeSocket != 0:
+		return "a socket"
+	}
+	return "a special file"
+}
+
 func newReader(spec TrendSpec, name string) (*reader, error) {
 	p := &reader{spec: spec, name: name, loc: time.UTC, density: spec.Density, di: -1, pi: -1}
+	if strings.EqualFold(spec.TimeZone, "Local") {
+		return nil, specError("time zone Local is whatever zone the computer is set to, so results would change from machine to machine: give the plant's IANA zone (e.g. America/Chicago) or UTC")
+	}
 	if spec.TimeZone != "" {
 		loc, err := time.LoadLocation(spec.TimeZone)
 		if err != nil {
@@ -143,12 +185,19 @@ type row struct {
 
 func (p *reader) read(lines []string) (*Trend, error) {
 	p.rep.Lines = len(lines)
+	if l := plantFileLine(lines); l > 0 {
+		return nil, p.errAt(l, 1, "", fmt.Errorf("%w: the file is a plant file (YAML with pumps: and system:), not a CSV trend log", ErrNoHeader))
+	}
 	h, err := p.findHeader(lines)
 	if err != nil {
 		return nil, err
 	}
 	if err := p.mapColumns(lines[h], h+1); err != nil {
 		return nil, err
+	}
+	if n := len(lines) - h - 1; n > MaxRows {
+		return nil, p.errAt(h+2+MaxRows, 0, "", fmt.Errorf("%w: %d lines after the header, more than the %d accepted: resample the log to a longer interval or split it",
+			ErrTooManyRows, n, MaxRows))
 	}
 	rows := p.splitRows(lines[h+1:], h+2)
 	if len(rows) == 0 {
@@ -235,6 +284,24 @@ func likelyDelimiter(l string) byte {
 	return best
 }
 
+// plantFileLine returns the 1-based line of "pumps:" when the file's first
+// lines hold the top-level keys pumps: and system: of a plant file, else 0.
+func plantFileLine(lines []string) int {
+	pumps, system := 0, false
+	for i, l := range lines[:min(len(lines), 400)] {
+		switch {
+		case strings.HasPrefix(l, "pumps:"):
+			pumps = i + 1
+		case strings.HasPrefix(l, "system:"):
+			system = true
+		}
+	}
+	if system {
+		return pumps
+	}
+	return 0
+}
+
 func looksLikeData(fields []string) bool {
 	for _, f := range fields {
 		if _, ok := number(f, ','); ok {
@@ -307,9 +374,6 @@ func (p *reader) mapColumns(line string, lineNo int) error {
 	} else if p.ti, err = find(p.spec.TimeColumn); err != nil {
 		return err
 	}
-	if p.ti == p.fi {
-		return p.errAt(lineNo, starts[p.fi], header[p.fi], fmt.Errorf("%w: the time and flow columns are both %q", ErrSpec, header[p.fi]))
-	}
 	if p.spec.DPColumn != "" {
 		if p.di, err = find(p.spec.DPColumn); err != nil {
 			return err
@@ -318,6 +382,18 @@ func (p *reader) mapColumns(line string, lineNo int) error {
 	if p.spec.PowerColumn != "" {
 		if p.pi, err = find(p.spec.PowerColumn); err != nil {
 			return err
+		}
+	}
+	roles := []struct {
+		name string
+		i    int
+	}{{"time", p.ti}, {"flow", p.fi}, {"DP", p.di}, {"power", p.pi}}
+	for a := range roles {
+		for b := a + 1; b < len(roles); b++ {
+			if i := roles[a].i; i >= 0 && i == roles[b].i {
+				return p.errAt(lineNo, starts[i], header[i], fmt.Errorf("%w: the %s and %s columns are both %q: each quantity needs its own column",
+					ErrSpec, roles[a].name, roles[b].name, header[i]))
+			}
 		}
 	}
 	if p.flowMul == 0 {
@@ -389,14 +465,53 @@ func allEmpty(f []string) bool {
 	return true
 }
 
-// parseValues converts the flow, DP and power cells of rows still good.
+// columnOf decides the number format of column i from the cells of the
+// rows still good, and warns when some cells could be read either way or
+// have leading zeros.
+func (p *reader) columnOf(rows []*row, i int) numFormat {
+	if i < 0 {
+		return numFormat{decimal: '.'}
+	}
+	var cells []string
+	var lines []int
+	zeros, zeroLine := 0, 0
+	for _, r := range rows {
+		if r.drop >= 0 || i >= len(r.fields) || r.fields[i] == "" {
+			continue
+		}
+		cells = append(cells, r.fields[i])
+		lines = append(lines, r.line)
+		if leadingZero(r.fields[i]) {
+			if zeros == 0 {
+				zeroLine = r.line
+			}
+			zeros++
+		}
+	}
+	f, n, first := columnFormat(cells, p.delim)
+	col := p.header[i]
+	if n > 0 {
+		line := lines[slices.Index(cells, first)]
+		v, _ := f.parse(first)
+		p.warn(line, "%d numbers in column %q such as %q could have a decimal or a thousands separator and no other cell tells: read %q as %s; if that is wrong, check the export's number format",
+			n, col, first, first, strconv.FormatFloat(v, 'f', -1, 64))
+	}
+	if zeros > 0 {
+		p.warn(zeroLine, "%d numbers in column %q have leading zeros (such as line %d's); read as decimal numbers, not octal", zeros, col, zeroLine)
+	}
+	return f
+}
+
+// parseValues converts the flow, DP and power cells of rows still good,
+// each column in the number format its cells show as a whole.
 func (p *reader) parseValues(rows []*row) {
+	ff, df, pf := p.columnOf(rows, p.fi), p.columnOf(rows, p.di), p.columnOf(rows, p.pi)
 	for _, r := range rows {
 		if r.drop >= 0 {
 			continue
 		}
 		cell := r.fields[p.fi]
-		v, ok := number(cell, p.delim)
+		v, ok := ff.parse(cell)
 		switch {
 		case cell == "":
 			r.drop = BlankFlow
@@ -410,7 +525,7 @@ func (p *reader) parseValues(rows []*row) {
 		}
 		r.flow = v * p.flowMul
 		if p.di >= 0 && p.di < len(r.fields) && r.fields[p.di] != "" {
-			v, ok := number(r.fields[p.di], p.delim)
+			v, ok := df.parse(r.fields[p.di])
 			switch {
 			case !ok:
 				r.notes = append(r.notes, BadDP)
@@ -421,7 +536,7 @@ func (p *reader) parseValues(rows []*row) {
 			}
 		}
 		if p.pi >= 0 && p.pi < len(r.fields) && r.fields[p.pi] != "" {
-			v, ok := number(r.fields[p.pi], p.delim)
+			v, ok := pf.parse(r.fields[p.pi])
 			switch {
 			case !ok:
 				r.notes = append(r.notes, BadPower)
@@ -628,6 +743,9 @@ func delimName(d byte) string {
 // build turns the kept rows (in time order) into the Trend: the interval,
 // each point's weight, the gaps and the coverage.
 func (p *reader) build(kept []*row) (*Trend, error) {
+	if err := p.checkSpan(kept); err != nil {
+		return nil, err
+	}
 	iv := p.spec.Interval
 	if iv == 0 {
 		if len(kept) < 2 {
@@ -681,6 +799,59 @@ func (p *reader) build(kept []*row) (*Trend, error) {
 	tr.Report = p.rep
 	tr.Warnings = p.warnings
 	return tr, nil
+}
+
+// checkSpan refuses a log with a hole of more than maxStampGap between two
+// stamps, pointing at the rows on the smaller side of the largest hole.
+func (p *reader) checkSpan(kept []*row) error {
+	gi := -1
+	var gap time.Duration
+	for i := 1; i < len(kept); i++ {
+		if d := kept[i].t.Sub(kept[i-1].t); d > gap {
+			gi, gap = i, d
+		}
+	}
+	if gap <= maxStampGap {
+		return nil
+	}
+	before, after := kept[:gi], kept[gi:]
+	stray, rest := before, after
+	if len(after) < len(before) {
+		stray, rest = after, before
+	}
+	lines := make([]int, 0, min(len(stray), MaxLines))
+	for _, r := range stray[:min(len(stray), MaxLines)] {
+		lines = append(lines, r.line)
+	}
+	slices.Sort(lines)
+	day := "2006-01-02 15:04"
+	return p.errAt(lines[0], 0, p.spec.TimeColumn, fmt.Errorf("%w: %s (%s) %s %.1f years from the rest of the log, which runs %s to %s; a trend is one continuous record: correct or remove %s",
+		ErrStrayStamp, plural(len(stray), "stamp", "stamps"), lineWords(lines, len(stray)),
+		map[bool]string{true: "lies", false: "lie"}[len(stray) == 1], gap.Hours()/(24*365.25),
+		rest[0].t.In(p.loc).Format(day), rest[len(rest)-1].t.In(p.loc).Format(day), map[bool]string{true: "it", false: "them"}[len(stray) == 1]))
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
+}
+
+// lineWords writes "line 7" or "lines 7, 9 …".
+func lineWords(lines []int, n int) string {
+	q := make([]string, len(lines))
+	for i, l := range lines {
+		q[i] = strconv.Itoa(l)
+	}
+	s := "line " + q[0]
+	if len(q) > 1 {
+		s = "lines " + strings.Join(q, ", ")
+	}
+	if n > len(lines) {
+		s += " …"
+	}
+	return s
 }
 
 func (p *reader) addGap(from, to time.Time) {

@@ -2,6 +2,7 @@ package profile
 
 import (
 	"fmt"
+	"math"
 	"slices"
 	"strconv"
 	"strings"
@@ -22,6 +23,9 @@ var layouts = []layout{
 	{layout: time.RFC3339, zoned: true},
 	{layout: "2006-01-02 15:04:05Z07:00", zoned: true},
 	{layout: "2006-01-02 15:04:05 -0700", zoned: true},
+	{layout: "2006-01-02T15:04Z07:00", zoned: true},
+	{layout: "2006-01-02 15:04Z07:00", zoned: true},
+	{layout: "2006-01-02 15:04 -0700", zoned: true},
 	{layout: "2006-01-02T15:04:05"},
 	{layout: "2006-01-02T15:04"},
 	{layout: "2006-01-02 15:04:05"},
@@ -47,23 +51,74 @@ var layouts = []layout{
 // the span of a file stays within what time.Duration holds (292 years).
 const minYear, maxYear = 1970, 2199
 
-// unixLayout is the TimeFormat for stamps in seconds since 1970-01-01 UTC.
-const unixLayout = "unix"
+// The TimeFormats for numeric stamps: seconds or milliseconds since
+// 1970-01-01 UTC, and spreadsheet serial dates (days since 1899-12-30 —
+// the 1900 date system, whose serial 25569 is 1970-01-01; from memory —
+// with the time of day as the fraction), which are wall-clock times like
+// a written date.
+const (
+	unixLayout   = "unix"
+	unixMSLayout = "unix_ms"
+	excelLayout  = "excel"
+)
+
+// excelEpoch is the day a spreadsheet serial date counts from.
+var excelEpoch = time.Date(1899, 12, 30, 0, 0, 0, 0, time.UTC)
 
 func isZoned(l string) bool {
-	return l == unixLayout || strings.Contains(l, "Z07") || strings.Contains(l, "-07")
+	return l == unixLayout || l == unixMSLayout || strings.Contains(l, "Z07") || strings.Contains(l, "-07")
 }
 
 func parseStamp(layout, s string) (time.Time, error) {
-	if layout == unixLayout {
+	switch layout {
+	case unixLayout, unixMSLayout:
 		v, err := strconv.ParseFloat(s, 64)
+		if layout == unixMSLayout {
+			v /= 1000
+		}
 		if err != nil || !(v > -1e12 && v < 1e12) {
 			return time.Time{}, fmt.Errorf("not seconds since 1970")
 		}
-		sec := int64(v)
-		return time.Unix(sec, int64((v-float64(sec))*1e9)).UTC(), nil
+		sec := math.Floor(v)
+		return time.Unix(int64(sec), int64(math.Round((v-sec)*1e6))*1000).UTC(), nil
+	case excelLayout:
+		v, err := strconv.ParseFloat(s, 64)
+		if err != nil || !(v >= 1 && v < 1e6) {
+			return time.Time{}, fmt.Errorf("not a serial date")
+		}
+		// To the nearest millisecond: a serial time of day is a binary
+		// fraction of a day (an hour is 1/24) and never exact.
+		ms := math.Round(v * 86400e3)
+		return excelEpoch.Add(time.Duration(ms) * time.Millisecond), nil
 	}
 	return time.Parse(layout, s)
+}
+
+// numericLayout recognises stamps that are all numbers and returns the
+// numeric format their size shows, or "": from 10⁸ to 10¹¹ seconds since
+// 1970 (1973–5138), from 10¹¹ to 10¹⁴ milliseconds (1973–5138), from
+// 20000 to 110000 a serial date (1954–2201).
+func numericLayout(stamps []string) string {
+	if len(stamps) == 0 {
+		return ""
+	}
+	var lo, hi float64 = math.Inf(1), math.Inf(-1)
+	for _, s := range stamps {
+		v, err := strconv.ParseFloat(s, 64)
+		if err != nil || strings.ContainsAny(s, "eEnNiI") {
+			return ""
+		}
+		lo, hi = min(lo, v), max(hi, v)
+	}
+	switch {
+	case lo >= 1e8 && hi < 1e11:
+		return unixLayout
+	case lo >= 1e11 && hi < 1e14:
+		return unixMSLayout
+	case lo >= 20000 && hi < 110000:
+		return excelLayout
+	}
+	return ""
 }
 
 // chooseLayout picks the timestamp layout: the spec's, or the candidate
@@ -110,7 +165,16 @@ func (p *reader) chooseLayout(rows []*row) string {
 		}
 	}
 	if counts[best] == 0 {
-		return ""
+		lay := numericLayout(stamps)
+		if lay != "" {
+			r := firstStamp(rows)
+			what := map[string]string{unixLayout: "seconds since 1970-01-01 UTC", unixMSLayout: "milliseconds since 1970-01-01 UTC",
+				excelLayout: "spreadsheet serial dates (days since 1899-12-30, wall-clock time)"}[lay]
+			t, _ := parseStamp(lay, r.fields[p.ti])
+			p.warn(r.line, "numeric stamps such as %q read as %s (%s); give time_format %s to say so, or another if that is wrong",
+				r.fields[p.ti], what, t.Format("2006-01-02 15:04:05"), lay)
+		}
+		return lay
 	}
 	if tw := layouts[best].twin; tw != "" {
 		for i, l := range layouts {
@@ -158,8 +222,13 @@ func (p *reader) parseTimes(rows []*row) error {
 			}
 		}
 		if r.drop < 0 {
-			return p.errAt(r.line, r.starts[p.ti], p.spec.TimeColumn, fmt.Errorf("%w: %s in column %q; give the trend's time format",
-				ErrTimeFormat, quoteCut(r.fields[p.ti]), p.spec.TimeColumn))
+			hint := `give the trend's time_format: a Go layout written with the reference time (e.g. "2006-01-02 15:04"), or unix, unix_ms or excel for numbers`
+			if _, err := strconv.ParseFloat(r.fields[p.ti], 64); err == nil {
+				hint = "the numbers are not seconds (10⁸–10¹¹) or milliseconds (10¹¹–10¹⁴) since 1970, nor spreadsheet serial dates (20000–110000): " +
+					"export the stamps as dates, or give time_format unix, unix_ms or excel if one of them is meant"
+			}
+			return p.errAt(r.line, r.starts[p.ti], p.spec.TimeColumn, fmt.Errorf("%w: %s in column %q; %s",
+				ErrTimeFormat, quoteCut(r.fields[p.ti]), p.spec.TimeColumn, hint))
 		}
 		return nil // every row already dropped for another reason
 	}

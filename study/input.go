@@ -47,6 +47,9 @@ func Prepare(p *plant.Plant, binWidth curves.Flow) (*Input, error) {
 	if err != nil {
 		return nil, err
 	}
+	if err := tr.Plausible(p.TrendExpect()); err != nil {
+		return nil, err
+	}
 	in.Trend = tr
 	if binWidth == 0 {
 		in.Steps = optimize.StepsFromTrend(tr.Points)

@@ -247,12 +247,12 @@ func TestWriteUnwritableFolder(t *testing.T) {
 	dir := t.TempDir()
 	notDir := filepath.Join(dir, "a-file")
 	writeEarlier(t, notDir)
+	// A missing folder, or a file where the folder should be, is refused
+	// by the path check before any work (TestCheckPath); what is left is a
+	// folder that exists but cannot be written in.
 	cases := []struct {
 		name, path, want string
-	}{
-		{"missing folder", filepath.Join(dir, "no-such", "plan.xlsx"), "no such file or directory"},
-		{"parent is a file", filepath.Join(notDir, "plan.xlsx"), "not a directory"},
-	}
+	}{}
 	if os.Geteuid() != 0 { // root writes through permission bits
 		ro := filepath.Join(dir, "read-only")
 		if err := os.Mkdir(ro, 0o555); err != nil {
