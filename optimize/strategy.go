@@ -264,7 +264,10 @@ func PartialVariant(p *plant.Plant, withDrive []int, drive curves.Drive) *plant.
 		d := min(withDrive[i], m.Count)
 		if d > 0 {
 			v := m
-			v.Count, v.Drive = d, curves.Rewire(m.Drive, drive)
+			v.Count = d
+			if drive != nil {
+				v.Drive = curves.Rewire(m.Drive, drive)
+			}
 			if d < m.Count {
 				v.Name, v.Tags = m.Name+" (drive)", nil
 			}

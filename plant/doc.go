@@ -25,6 +25,7 @@
 //	    count: 3                         # identical installed units (default 1)
 //	    tags: [CHWP-1, CHWP-2, CHWP-3]   # optional: one tag per installed unit
 //	    standby: 0                       # optional: units held in standby, never planned
+//	    drive_bypass: false              # optional: a bypass contactor lets a unit run across the line
 //	    rated_speed: 1780                # rpm; also gives the motor's pole count
 //	    curve:                           # datasheet points at rated speed, rising flow
 //	      - {flow: 0,    head: 118}

@@ -62,6 +62,11 @@ type Model struct {
 	Motor      curves.Motor
 	Drive      curves.Drive // curves.FixedSpeed{} for an across-the-line unit
 	BranchK    float64      // per-unit branch loss coefficient, m per (m³/s)²; 0 = none
+	// DriveBypass is true when each unit's drive has a bypass contactor, so
+	// the unit may run across the line at rated speed where that draws
+	// less (near full speed the drive's own losses can exceed what speed
+	// control saves). False in the zero value.
+	DriveBypass bool
 }
 
 // Variable reports whether the model's units run on a variable-speed drive.

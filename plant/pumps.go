@@ -41,7 +41,7 @@ const (
 )
 
 var pumpKeys = []string{"name", "count", "rated_speed", "curve", "head_fit", "allow_rising", "speed_correction",
-	"min_speed", "max_speed", "min_flow", "runout", "motor", "drive", "branch_loss", "tags", "standby"}
+	"min_speed", "max_speed", "min_flow", "runout", "motor", "drive", "branch_loss", "tags", "standby", "drive_bypass"}
 
 // pumpSpec is a pump model while it is being read: the model and what is
 // still needed to finish it once the system is known.
@@ -154,6 +154,16 @@ func (d *decoder) pump(n *yaml.Node, path string) *pumpSpec {
 	if v := d.value(f, "runout"); v != nil {
 		if fv, ok := d.flow(v, join(path, "runout"), "BEP flow"); ok {
 			s.runout = &fv
+		}
+	}
+	if v := d.value(f, "drive_bypass"); v != nil {
+		if b, ok := d.boolean(v, join(path, "drive_bypass")); ok {
+			switch {
+			case b && driveOK && !variable:
+				d.errorf(v, join(path, "drive_bypass"), "a bypass goes round a variable-speed drive; this unit runs across the line already")
+			default:
+				m.DriveBypass = b
+			}
 		}
 	}
 	if v := d.value(f, "branch_loss"); v != nil {

@@ -20,6 +20,7 @@ const (
 	KeyNoReset   = "noreset"
 	KeyLoggedDP  = "loggeddp"
 	KeyPreferred = "preferred"
+	KeyBypassed  = "drivebypass"
 )
 
 // DefaultBaseline is the strategy savings are counted against when none is
@@ -63,6 +64,9 @@ func Strategies(p *plant.Plant, sp *optimize.Setpoints) []Keyed {
 	pref := optimize.NewLowest("lowest-power staging inside the preferred region", p, optimize.Options{PreferredOnly: true})
 	pref.Note = "the lowest-power staging with every unit kept inside 70–120 % of BEP flow at its speed (ANSI/HI 9.6.3): what staying in the preferred region costs"
 	ks = append(ks, Keyed{KeyPreferred, pref})
+	if b := optimize.NewDriveBypass("lowest-power staging with drive bypass", p); b != nil {
+		ks = append(ks, Keyed{KeyBypassed, b})
+	}
 	if v, label := partialRetrofit(p); v != nil {
 		l := optimize.NewLowest(label, v, optimize.Options{})
 		l.Note = "lowest-power staging with one unit of the largest model left across the line (a partial drive retrofit)"

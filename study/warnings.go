@@ -92,7 +92,7 @@ func (r *Result) beatenNotes() {
 		return
 	}
 	for _, s := range r.Strategies {
-		if s.Key == KeyLowest || s.Drives >= lo.Drives {
+		if s.Key == KeyLowest || s.Key == KeyBypassed || s.Drives >= lo.Drives {
 			continue
 		}
 		hours, worst := 0.0, 0.0
@@ -104,8 +104,12 @@ func (r *Result) beatenNotes() {
 			}
 		}
 		if hours > 0 {
-			r.warn(SourceStudy, "%s draws less than the lowest-power staging for %.0f h of the period (by up to %.1f %%): near full speed a drive's own losses exceed what speed control saves there; a drive bypass would recover it",
-				s.Name, hours, 100*worst)
+			cure := "a drive bypass (drive_bypass: true) would recover it"
+			if bp := r.Strategy(KeyBypassed); bp != nil {
+				cure = fmt.Sprintf("with the drive bypass the plant draws %s kWh/yr less than the lowest-power staging", Grouped(lo.Annual.Energy-bp.Annual.Energy))
+			}
+			r.warn(SourceStudy, "%s draws less than the lowest-power staging for %.0f h of the period (by up to %.1f %%): near full speed a drive's own losses exceed what speed control saves there; %s",
+				s.Name, hours, 100*worst, cure)
 		}
 	}
 }
