@@ -65,7 +65,7 @@ With -o the same goes into an Excel workbook to hand over.`,
 }
 
 // planStudy loads the plant, reads its profile and runs the study.
-func planStudy(path, binWidth, baseline string, progress func(string, int, int)) (*study.Result, error) {
+func planStudy(path, binWidth, baseline string, detail bool, progress func(string, int, int)) (*study.Result, error) {
 	p, err := loadPlant(path)
 	if err != nil {
 		return nil, err
@@ -83,7 +83,7 @@ func planStudy(path, binWidth, baseline string, progress func(string, int, int))
 	if err != nil {
 		return nil, badInput(err)
 	}
-	res, err := study.Run(in, study.Options{Baseline: baseline, Progress: progress})
+	res, err := study.Run(in, study.Options{Baseline: baseline, Progress: progress, KeepStates: detail})
 	if errors.Is(err, study.ErrBaseline) {
 		return nil, badInput(err)
 	}
@@ -103,7 +103,7 @@ func planRun(opts *PlanOptions) error {
 			}
 		}
 	}
-	res, err := planStudy(opts.PlantPath, opts.BinWidth, opts.Baseline, progress)
+	res, err := planStudy(opts.PlantPath, opts.BinWidth, opts.Baseline, opts.JSON && opts.Detail, progress)
 	if err != nil {
 		return err
 	}

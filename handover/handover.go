@@ -35,7 +35,7 @@ func Build(res *study.Result) (*workbook.Report, error) {
 		r.Notes = append(r.Notes, w.Source+": "+w.Message)
 	}
 	if res.LoadBinWidth > 0 {
-		r.Notes = append(r.Notes, fmt.Sprintf("Load points gather the trend's intervals into flow groups %s wide: hours, energy and cost are the sums over the group's intervals (so they add up to the annual totals); the units, speeds and efficiencies shown are those of the group's served interval nearest its mean flow.",
+		r.Notes = append(r.Notes, fmt.Sprintf("Load points gather the trend's intervals into flow groups %s wide: hours, energy and cost are the sums over the group's intervals (so they add up to the annual totals); the units, speeds and efficiencies shown are those of the group's served interval nearest its centre flow.",
 			u.FormatFlow(res.LoadBinWidth)))
 	}
 	inputs(r, p)

@@ -55,7 +55,7 @@ func (b *Banded) solve(load curves.Flow) (Result, bool) {
 	return first, false
 }
 
-func (b *Banded) Run(steps []Step) Run {
+func (b *Banded) Stream(steps []Step, visit func(int, *Result)) Run {
 	how := "on their drives at one common speed"
 	if b.seq.FixedSpeed {
 		how = "at fixed speed, a valve throttling the extra head"
@@ -63,9 +63,9 @@ func (b *Banded) Run(steps []Step) Run {
 	r := Run{Name: b.Label, Plant: b.Plant, Drives: drives(b.Plant),
 		Note: "the units the current sequence runs in each flow band, " + how}
 	prev := -1
-	for _, st := range steps {
+	for i, st := range steps {
 		res, _ := b.solve(st.Load)
-		r.Points = append(r.Points, res)
+		visit(i, &res)
 		prev = countChange(&r, st, res, prev)
 	}
 	return r

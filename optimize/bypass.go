@@ -120,13 +120,13 @@ func (v bypassVariant) remap(r Result, n int) Result {
 	return r
 }
 
-func (b *DriveBypass) Run(steps []Step) Run {
+func (b *DriveBypass) Stream(steps []Step, visit func(int, *Result)) Run {
 	r := Run{Name: b.Label, Drives: drives(b.Plant), Plant: b.Plant,
 		Note: "the lowest-power staging, a unit's drive bypassed (across the line at rated speed) wherever that draws less"}
 	prev := -1
-	for _, st := range steps {
+	for i, st := range steps {
 		res := b.solve(st.Load)
-		r.Points = append(r.Points, res)
+		visit(i, &res)
 		prev = countChange(&r, st, res, prev)
 	}
 	return r

@@ -76,8 +76,9 @@ func (q *Sequenced) Run(steps []Step) Run {
 	return r
 }
 
-// RunCycling runs the sequence and counts its stage changes and starts.
-func (q *Sequenced) RunCycling(steps []Step) (Run, Cycling) {
+// StreamCycling runs the sequence, visiting each step's state as it is
+// solved, and counts its stage changes and starts.
+func (q *Sequenced) StreamCycling(steps []Step, visit func(int, *Result)) (Run, Cycling) {
 	sp := q.Setpoints
 	p := sp.Plant
 	r := Run{Name: q.Label, Drives: drives(p),
@@ -87,11 +88,12 @@ func (q *Sequenced) RunCycling(steps []Step) (Run, Cycling) {
 	k := -1 // current stage index; -1 = not started
 	var upSince, downSince, prev time.Time
 	hours := 0.0
-	for _, st := range steps {
+	for i, st := range steps {
 		hours += st.Hours
 		pumped := max(st.Load, p.MinFlow)
 		if !st.Timed() {
-			r.Points = append(r.Points, q.serve(st.Load, q.goingUp(pumped)))
+			res := q.serve(st.Load, q.goingUp(pumped))
+			visit(i, &res)
 			continue
 		}
 		if k < 0 || (!prev.IsZero() && st.Time.Sub(prev) > 6*time.Hour) {
@@ -108,7 +110,7 @@ func (q *Sequenced) RunCycling(steps []Step) (Run, Cycling) {
 			res = q.at(st.Load, k)
 			upSince, downSince = time.Time{}, time.Time{}
 		}
-		r.Points = append(r.Points, res)
+		visit(i, &res)
 		if res.Status != Served {
 			continue
 		}
@@ -143,6 +145,21 @@ func (q *Sequenced) RunCycling(steps []Step) (Run, Cycling) {
 	cy := cc.finish(hours)
 	r.Changes = cy.Changes
 	return r, cy
+}
+
+// RunCycling runs the sequence, keeping every state, and counts its stage
+// changes and starts.
+func (q *Sequenced) RunCycling(steps []Step) (Run, Cycling) {
+	var pts []Result
+	r, cy := q.StreamCycling(steps, func(_ int, res *Result) { pts = append(pts, *res) })
+	r.Points = pts
+	return r, cy
+}
+
+// Stream runs the sequence, visiting each step's state.
+func (q *Sequenced) Stream(steps []Step, visit func(int, *Result)) Run {
+	r, _ := q.StreamCycling(steps, visit)
+	return r
 }
 
 // goingUp returns the stage a plant flow falls in as flow rises: the first

@@ -24,9 +24,31 @@ func (s Step) Timed() bool { return !s.Time.IsZero() }
 type Strategy interface {
 	// Name is the strategy's label in reports.
 	Name() string
-	// Run evaluates the steps, in order (time order for a trend).
+	// Run evaluates the steps, in order (time order for a trend), and
+	// keeps every state in Run.Points.
 	Run(steps []Step) Run
+	// Stream evaluates the steps in order and calls visit with each
+	// step's state as it is solved (the pointer is valid only during the
+	// call); the Run it returns has no Points, so a long profile needs
+	// memory for one state at a time.
+	Stream(steps []Step, visit func(i int, r *Result)) Run
 }
+
+// Collect runs a streaming strategy and keeps every state: the Run of
+// every strategy.
+func Collect(s Strategy, steps []Step) Run {
+	pts := make([]Result, 0, len(steps))
+	r := s.Stream(steps, func(_ int, res *Result) { pts = append(pts, *res) })
+	r.Points = pts
+	return r
+}
+
+func (l *Lowest) Run(steps []Step) Run         { return Collect(l, steps) }
+func (s *Staged) Run(steps []Step) Run         { return Collect(s, steps) }
+func (t *Throttled) Run(steps []Step) Run      { return Collect(t, steps) }
+func (c *ConstantBypass) Run(steps []Step) Run { return Collect(c, steps) }
+func (b *Banded) Run(steps []Step) Run         { return Collect(b, steps) }
+func (b *DriveBypass) Run(steps []Step) Run    { return Collect(b, steps) }
 
 // Run is a strategy's result over a profile.
 type Run struct {
@@ -61,15 +83,15 @@ func NewLowest(label string, p *plant.Plant, opt Options) *Lowest {
 }
 
 func (l *Lowest) Name() string { return l.Label }
-func (l *Lowest) Run(steps []Step) Run {
+func (l *Lowest) Stream(steps []Step, visit func(int, *Result)) Run {
 	r := Run{Name: l.Label, Drives: drives(l.Plant), Plant: l.Plant, Note: l.Note}
 	if r.Note == "" {
 		r.Note = "the lowest-power count of running units and their speeds at every step"
 	}
 	prev := -1
-	for _, st := range steps {
+	for i, st := range steps {
 		res := l.Solver.Solve(st.Load)
-		r.Points = append(r.Points, res)
+		visit(i, &res)
 		prev = countChange(&r, st, res, prev)
 	}
 	return r
@@ -179,16 +201,16 @@ func (s *Staged) fewest(load curves.Flow) (Result, int) {
 	return s.solver.Solve(load), 0
 }
 
-func (s *Staged) Run(steps []Step) Run {
+func (s *Staged) Stream(steps []Step, visit func(int, *Result)) Run {
 	r := Run{Name: s.Label, Drives: drives(s.Plant), Plant: s.Plant,
 		Note: "one common speed for the running units; stage up above the stage-up speed, down below the stage-down speed"}
 	n := 0 // running units; 0 = not started
 	var upSince, downSince time.Time
 	var last time.Time
-	for _, st := range steps {
+	for i, st := range steps {
 		if !st.Timed() {
 			res, _ := s.fewest(st.Load)
-			r.Points = append(r.Points, res)
+			visit(i, &res)
 			continue
 		}
 		if n == 0 || (!last.IsZero() && st.Time.Sub(last) > 6*time.Hour) {
@@ -206,7 +228,7 @@ func (s *Staged) Run(steps []Step) Run {
 			res = s.solveN(st.Load, n)
 			upSince, downSince = time.Time{}, time.Time{}
 		}
-		r.Points = append(r.Points, res)
+		visit(i, &res)
 		if res.Status != Served {
 			continue
 		}
@@ -317,12 +339,12 @@ func (t *Throttled) solve(load curves.Flow) Result {
 	return t.solver.Solve(load)
 }
 
-func (t *Throttled) Run(steps []Step) Run {
+func (t *Throttled) Stream(steps []Step, visit func(int, *Result)) Run {
 	r := Run{Name: t.Label, Plant: t.Plant, Note: "fixed speed; a valve throttles the extra head; the fewest units that serve the flow"}
 	prev := -1
-	for _, st := range steps {
+	for i, st := range steps {
 		res := t.solve(st.Load)
-		r.Points = append(r.Points, res)
+		visit(i, &res)
 		prev = countChange(&r, st, res, prev)
 	}
 	return r
@@ -345,9 +367,9 @@ func NewConstantBypass(label string, p *plant.Plant) *ConstantBypass {
 
 func (c *ConstantBypass) Name() string { return c.Label }
 
-func (c *ConstantBypass) Run(steps []Step) Run {
+func (c *ConstantBypass) Stream(steps []Step, visit func(int, *Result)) Run {
 	r := Run{Name: c.Label, Plant: c.Plant, Note: "constant flow at the design point all year; the load's unused flow bypasses it"}
-	for _, st := range steps {
+	for i, st := range steps {
 		res := c.design
 		res.Units = append([]Unit(nil), c.design.Units...)
 		res.Counts = append([]int(nil), c.design.Counts...)
@@ -359,7 +381,7 @@ func (c *ConstantBypass) Run(steps []Step) Run {
 			res.Reason = "load above the design flow the constant-flow plant moves"
 		}
 		res.BypassFlow = curves.Flow(math.Max(0, float64(res.PumpedFlow-st.Load)))
-		r.Points = append(r.Points, res)
+		visit(i, &res)
 	}
 	return r
 }

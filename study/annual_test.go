@@ -119,3 +119,34 @@ func TestBinsAreHoursAYear(t *testing.T) {
 		t.Errorf("scaled annual energy %v, want 2.92 × %v", sl.Annual.Energy, lo.Energy.KWh)
 	}
 }
+
+// A trend longer than KeepStatesUpTo keeps no per-interval states, yet its
+// load points still add up to the year and its figures are those of the
+// same trend run keeping every state.
+func TestLongTrendKeepsAggregatesOnly(t *testing.T) {
+	if testing.Short() {
+		t.Skip("a 60,000-interval study")
+	}
+	start := time.Date(2025, 1, 6, 0, 0, 0, 0, time.UTC)
+	stamps, flows := hourly(start, 60_000) // 6.8 years of hours
+	p := writeTrendPlant(t, stamps, flows)
+	r := runPlant(t, p, noRange)
+	kept := runPlant(t, p, study.Options{Sensitivities: []study.Sensitivity{}, KeepStates: true})
+	for i, s := range r.Strategies {
+		if s.Run.Points != nil {
+			t.Errorf("%s: %d states kept on a %d-step trend", s.Name, len(s.Run.Points), len(r.Steps))
+		}
+		var kwh, cost float64
+		for _, lp := range s.LoadPoints {
+			kwh += lp.KWh
+			cost += lp.Cost
+		}
+		if !relClose(kwh, s.Energy.KWh, 1e-9) || !relClose(cost, s.Bill.EnergyCost, 1e-9) {
+			t.Errorf("%s: load points %.3f kWh, %.3f; the period %.3f kWh, %.3f", s.Name, kwh, cost, s.Energy.KWh, s.Bill.EnergyCost)
+		}
+		k := kept.Strategies[i]
+		if len(k.Run.Points) != len(r.Steps) || k.Annual != s.Annual || k.Regions != s.Regions {
+			t.Errorf("%s: with states kept %+v, without %+v", s.Name, k.Annual, s.Annual)
+		}
+	}
+}

@@ -3,8 +3,6 @@ package study
 import (
 	"math"
 	"wattstage/optimize"
-
-	"wattstage/curves"
 )
 
 // Calibration compares predicted with measured pump power over a trend.
@@ -27,14 +25,14 @@ type Calibration struct {
 //	CV(RMSE) = √(Σ(y − ŷ)² / (n − 1)) / ȳ
 //
 // so a model that predicts more than was measured has a negative NMBE.
-func Calibrate(run optimize.Run, steps []optimize.Step) Calibration {
-	c := Calibration{Strategy: run.Name}
+func Calibrate(name string, kw []float64, served []bool, steps []optimize.Step) Calibration {
+	c := Calibration{Strategy: name}
 	var sumM, sumE, sumE2 float64
 	for i, st := range steps {
-		if math.IsNaN(st.MeasuredKW) || run.Points[i].Status != optimize.Served {
+		if math.IsNaN(st.MeasuredKW) || !served[i] {
 			continue
 		}
-		pred := float64(run.Points[i].Power) / curves.KW
+		pred := kw[i]
 		e := pred - st.MeasuredKW
 		c.N++
 		sumM += st.MeasuredKW

@@ -43,23 +43,25 @@ func hasLoggedDP(steps []optimize.Step) bool {
 
 func (l *loggedDP) Name() string { return l.label }
 
+func (l *loggedDP) Run(steps []optimize.Step) optimize.Run { return optimize.Collect(l, steps) }
+
 // needAt is the head at the pumps for a logged DP at a load flow.
 func (l *loggedDP) needAt(dp curves.Head, q curves.Flow) curves.Head {
 	x := float64(q / l.sys.DesignFlow)
 	return dp + (l.sys.DesignHead-l.sys.ControlHead)*curves.Head(x*x)
 }
 
-func (l *loggedDP) Run(steps []optimize.Step) optimize.Run {
+func (l *loggedDP) Stream(steps []optimize.Step, visit func(int, *optimize.Result)) optimize.Run {
 	r := optimize.Run{Name: l.label, Plant: l.plant, Drives: optimize.Drives(l.plant),
 		Note: "the lowest-power staging holding the DP the trend logged at the sensor (the modelled setpoint where none was logged)"}
 	prev := -1
-	for _, st := range steps {
+	for i, st := range steps {
 		c := optimize.Constraint{}
 		if st.DP > 0 {
 			c.Head = l.needAt(st.DP, st.Load)
 		}
 		res := l.solver.SolveWith(st.Load, c)
-		r.Points = append(r.Points, res)
+		visit(i, &res)
 		if st.Timed() && res.Status == optimize.Served {
 			if n := res.Running(); prev >= 0 && n != prev {
 				r.Changes += abs(n - prev)

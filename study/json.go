@@ -3,6 +3,7 @@ package study
 import (
 	"bufio"
 	"encoding/json"
+	"fmt"
 	"io"
 	"math"
 	"time"
@@ -379,6 +380,9 @@ func (r *Result) WriteJSON(w io.Writer, detail bool) error {
 	}
 	u := r.Plant.Units
 	for _, s := range r.Strategies {
+		if len(s.Run.Points) != len(r.Steps) {
+			return fmt.Errorf("study: the detail needs every state: run the study with Options.KeepStates")
+		}
 		for i, st := range r.Steps {
 			res := s.Run.Points[i]
 			js := JSONStep{Record: "step", Strategy: s.Key, Flow: u.FlowOut(st.Load), Hours: st.Hours, Status: res.Status.String(),

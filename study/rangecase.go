@@ -26,8 +26,8 @@ func (r *Result) rangeCase(s Sensitivity, base string) (RangeCase, error) {
 			baseline = k.Strategy
 		}
 	}
-	le := optimize.Sum(lowest.Run(r.Steps), r.Steps)
-	be := optimize.Sum(baseline.Run(r.Steps), r.Steps)
+	le := streamEnergy(lowest, r.Steps)
+	be := streamEnergy(baseline, r.Steps)
 	la, err := r.annual(le)
 	if err != nil {
 		return RangeCase{}, err

@@ -1,7 +1,5 @@
 package study
 
-import "wattstage/optimize"
-
 // Regions counts, for one strategy over the period, the unit-hours spent
 // where a reviewing engineer looks: outside the preferred operating region
 // (70–120 % of BEP flow at the unit's speed, ANSI/HI 9.6.3), above rated
@@ -16,28 +14,4 @@ type Regions struct {
 	OutsideAllowable float64
 	Overspeed        float64 // unit-hours above 100 % of rated speed
 	Overload         float64 // unit-hours with the motor above its rated output (into the service factor)
-}
-
-// regions counts a run's unit-hours by region.
-func regions(run optimize.Run, steps []optimize.Step) Regions {
-	var g Regions
-	for i, st := range steps {
-		res := run.Points[i]
-		if res.Status != optimize.Served {
-			continue
-		}
-		for _, u := range res.Units {
-			g.UnitHours += st.Hours
-			if !u.Preferred {
-				g.OutsidePreferred += st.Hours
-			}
-			if u.Speed > 1+1e-9 {
-				g.Overspeed += st.Hours
-			}
-			if u.Load > 1+1e-9 {
-				g.Overload += st.Hours
-			}
-		}
-	}
-	return g
 }

@@ -73,6 +73,8 @@ type Strategy struct {
 	// Regions are the unit-hours of the period outside the preferred
 	// region, above rated speed and into the motor's service factor.
 	Regions Regions
+
+	served []bool // per step: the strategy served it
 }
 
 // Savings are a strategy's annual savings against the baseline.
@@ -104,7 +106,7 @@ type LoadPoint struct {
 	KWh        float64         // kWh in the period
 	KW         float64         // mean group input over the served hours, kW
 	Cost       float64         // the tariff's energy cost of these hours, currency
-	State      optimize.Result // the state: the bin's own, or the group's served interval nearest its mean flow
+	State      optimize.Result // the state: the bin's own, or the group's served interval nearest its centre flow
 	Grouped    bool            // the point gathers intervals (State is a typical one)
 }
 

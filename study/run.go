@@ -23,6 +23,10 @@ type Options struct {
 	// width for the load points and the binning check; 0 = 5 % of the
 	// design flow.
 	LoadBinWidth curves.Flow
+	// KeepStates keeps every state of every strategy (Strategy.Run.Points)
+	// whatever the profile's length, for the JSON detail; memory then grows
+	// with the profile.
+	KeepStates bool
 	// Progress, when set, is called before each long step (a strategy, a
 	// sensitivity case) with its label, its index and the number of steps.
 	Progress func(label string, i, n int)
@@ -83,7 +87,7 @@ func Run(in *Input, opt Options) (*Result, error) {
 	r.LoadBinWidth = loadBinWidth(in, opt.LoadBinWidth)
 	for i, k := range ks {
 		progress(k.Strategy.Name(), i)
-		s, err := r.runStrategy(k)
+		s, err := r.runStrategy(k, opt.KeepStates)
 		if err != nil {
 			return nil, err
 		}
@@ -114,19 +118,23 @@ func Run(in *Input, opt Options) (*Result, error) {
 	return r, nil
 }
 
-// runStrategy runs one strategy over the steps and prices it.
-func (r *Result) runStrategy(k Keyed) (Strategy, error) {
-	run := k.Strategy.Run(r.Steps)
+// runStrategy runs one strategy over the steps and prices it. States are
+// kept for profiles of up to KeepStatesUpTo steps or when asked (the JSON
+// detail); otherwise only aggregates are.
+func (r *Result) runStrategy(k Keyed, keep bool) (Strategy, error) {
+	acc := newAccumulator(r, keep || len(r.Steps) <= KeepStatesUpTo || r.LoadBinWidth <= 0)
+	run := k.Strategy.Stream(r.Steps, acc.visit)
+	run.Points = acc.points
+	acc.e.Name, acc.e.Changes, acc.e.Drives = run.Name, run.Changes, run.Drives
 	s := Strategy{Key: k.Key, Name: run.Name, Note: run.Note, Run: run, Drives: run.Drives,
-		Energy: optimize.Sum(run, r.Steps)}
+		Energy: acc.e, Regions: acc.reg, served: acc.served}
 	bill, err := econ.Cost(r.Plant.Tariff, samples(s.Energy, r.Steps))
 	if err != nil {
 		return Strategy{}, err
 	}
 	s.Bill = bill
 	s.Annual = bill.Annualise(r.Period.Factor)
-	s.LoadPoints = loadPoints(r, run, s.Energy, bill)
-	s.Regions = regions(run, r.Steps)
+	s.LoadPoints = acc.loadPoints(bill.SampleCost)
 	return s, nil
 }
 
@@ -195,14 +203,14 @@ func (r *Result) runChecks(ks []Keyed) {
 		if s == nil {
 			s = r.Strategy(KeyLowest)
 		}
-		if c := Calibrate(s.Run, r.Steps); c.N >= 2 {
+		if c := Calibrate(s.Name, s.Energy.KW, s.served, r.Steps); c.N >= 2 {
 			r.Calibration = &c
 		}
 	}
 	if r.Trend != nil && r.Binned == nil && r.LoadBinWidth > 0 {
 		if b, err := r.Trend.Bin(r.LoadBinWidth); err == nil {
 			steps := optimize.StepsFromBinned(b)
-			e := optimize.Sum(ks[0].Strategy.Run(steps), steps)
+			e := streamEnergy(ks[0].Strategy, steps)
 			r.Binning = &BinningCheck{Width: b.Width, Bins: len(b.Bins), CubeError: b.CubeError,
 				EveryKWh: r.Strategies[0].Annual.Energy, BinnedKWh: e.KWh * r.Period.Factor}
 		}

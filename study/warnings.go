@@ -4,8 +4,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-
-	"wattstage/optimize"
 )
 
 // Sources of warnings that do not come from a file position.
@@ -97,10 +95,10 @@ func (r *Result) beatenNotes() {
 		}
 		hours, worst := 0.0, 0.0
 		for i, st := range r.Steps {
-			a, b := lo.Run.Points[i], s.Run.Points[i]
-			if a.Status == optimize.Served && b.Status == optimize.Served && b.Power < a.Power {
+			a, b := lo.Energy.KW[i], s.Energy.KW[i]
+			if lo.served[i] && s.served[i] && b < a {
 				hours += st.Hours
-				worst = math.Max(worst, float64(a.Power-b.Power)/float64(a.Power))
+				worst = math.Max(worst, (a-b)/a)
 			}
 		}
 		if hours > 0 {
