@@ -312,6 +312,12 @@ func (p *Pump) EffPoly() Poly { return p.eff }
 // ShutoffHead is the fitted head at zero flow and rated speed.
 func (p *Pump) ShutoffHead() Head { return Head(p.head.Eval(0)) }
 
+// MaxHead is the highest head of the fitted curve at rated speed: the
+// shutoff head for a curve that falls from zero flow, the peak for a humped
+// (rising, then falling) one, which lies above its shutoff head. At speed s
+// the highest head is s²·MaxHead (affinity laws).
+func (p *Pump) MaxHead() Head { return Head(p.head.Eval(p.fallLo)) }
+
 // Head returns the head at flow q and speed ratio s: s²·H₀(q/s).
 func (p *Pump) Head(q Flow, s float64) Head {
 	if s <= 0 {
