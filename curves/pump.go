@@ -46,14 +46,41 @@ func (e *PointError) Unwrap() error { return e.Err }
 
 // Errors of pump point validation.
 var (
-	ErrNegative      = errors.New("must not be negative")
-	ErrNotPositive   = errors.New("must be greater than zero")
-	ErrEffRange      = errors.New("efficiency must be above 0 and at most 100 %")
-	ErrUnsorted      = errors.New("curve points must be listed in order of rising flow")
-	ErrNoEfficiency  = errors.New("point needs an efficiency or a shaft power")
-	ErrShutoffHead   = errors.New("curves: fitted shutoff head is not positive")
-	ErrEfficiencyFit = errors.New("curves: fitted efficiency leaves 0–100 % inside the datasheet range")
+	ErrNegative       = errors.New("must not be negative")
+	ErrNotPositive    = errors.New("must be greater than zero")
+	ErrEffRange       = errors.New("efficiency must be above 0 and at most 100 %")
+	ErrUnsorted       = errors.New("curve points must be listed in order of rising flow")
+	ErrNoEfficiency   = errors.New("point needs an efficiency or a shaft power")
+	ErrShutoffHead    = errors.New("curves: fitted shutoff head is not positive")
+	ErrEfficiencyFit  = errors.New("curves: fitted efficiency leaves 0–100 % inside the datasheet range")
+	ErrEfficiencyMiss = errors.New("curves: the fitted efficiency curve misses a datasheet point")
 )
+
+// EffMissTolerance is the largest gap, in efficiency (0–1), allowed between
+// the fitted efficiency curve and a given point: 10 points of efficiency.
+// A datasheet efficiency read off a published curve is good to a point or
+// two, and a polynomial through the origin follows a real pump's efficiency
+// curve to a few points (common practice; a quadratic through four points
+// of an invented datasheet here misses one by 5.2 points); a miss of more
+// than 10 means the points do not describe a pump efficiency curve — most
+// often one constant efficiency given at every point, which no curve that
+// starts from zero efficiency at zero flow can follow (a flat 78 % is
+// missed by up to 39 points).
+const EffMissTolerance = 0.10
+
+// EffMissError is a fitted efficiency curve that misses a given point by
+// more than EffMissTolerance: the worst point, with the fitted and given
+// efficiencies and how many points miss.
+type EffMissError struct {
+	Fitted, Given float64 // efficiency 0–1 at the point
+	Misses        int     // points beyond the tolerance, this one included
+}
+
+func (e *EffMissError) Error() string {
+	return fmt.Sprintf("%v: the fit gives %.1f %% where %.1f %% is given", ErrEfficiencyMiss, 100*e.Fitted, 100*e.Given)
+}
+
+func (e *EffMissError) Unwrap() error { return ErrEfficiencyMiss }
 
 // Pump is a fitted pump curve at rated speed, scaled to any speed by the
 // affinity laws. Build one with NewPump.
@@ -166,6 +193,9 @@ func NewPump(points []PumpPoint, opt PumpOptions) (*Pump, error) {
 	if err := p.checkShape(opt.AllowRising); err != nil {
 		return nil, err
 	}
+	if err := p.checkEffFit(); err != nil {
+		return nil, err
+	}
 	p.findBEP()
 	p.fallLo, p.fallHi = p.fallingBranch()
 	if p.bepAtEdge {
@@ -206,6 +236,33 @@ func (p *Pump) checkShape(allowRising bool) error {
 		}
 	}
 	return nil
+}
+
+// checkEffFit refuses an efficiency fit that misses a given point (with
+// flow) by more than EffMissTolerance, naming the worst point.
+func (p *Pump) checkEffFit() error {
+	worst, gap, misses := -1, 0.0, 0
+	for i, pt := range p.Points {
+		if pt.Flow <= 0 {
+			continue
+		}
+		d := math.Abs(p.eff.Eval(float64(pt.Flow)) - pt.Eff)
+		if d > EffMissTolerance {
+			misses++
+			if d > gap {
+				worst, gap = i, d
+			}
+		}
+	}
+	if worst < 0 {
+		return nil
+	}
+	field := "efficiency"
+	if p.Points[worst].Shaft > 0 {
+		field = "shaft_power"
+	}
+	return &PointError{Index: worst, Field: field, Err: &EffMissError{
+		Fitted: p.eff.Eval(float64(p.Points[worst].Flow)), Given: p.Points[worst].Eff, Misses: misses}}
 }
 
 // findBEP locates the maximum of the fitted efficiency on [0, 1.5·LastFlow]
@@ -254,6 +311,12 @@ func (p *Pump) EffPoly() Poly { return p.eff }
 
 // ShutoffHead is the fitted head at zero flow and rated speed.
 func (p *Pump) ShutoffHead() Head { return Head(p.head.Eval(0)) }
+
+// MaxHead is the highest head of the fitted curve at rated speed: the
+// shutoff head for a curve that falls from zero flow, the peak for a humped
+// (rising, then falling) one, which lies above its shutoff head. At speed s
+// the highest head is s²·MaxHead (affinity laws).
+func (p *Pump) MaxHead() Head { return Head(p.head.Eval(p.fallLo)) }
 
 // Head returns the head at flow q and speed ratio s: s²·H₀(q/s).
 func (p *Pump) Head(q Flow, s float64) Head {

@@ -602,3 +602,34 @@ func TestBEPInsidePointsWithCubicUpturn(t *testing.T) {
 		t.Errorf("BEP at %.0f gpm, want between the 400 and 800 gpm points", float64(p.BEPFlow)/g)
 	}
 }
+
+// One constant efficiency at every point cannot be followed by a curve
+// through zero efficiency at zero flow: the fit is refused, naming the
+// worst point. With 78 % at four flows (invented datasheet) the two-term
+// fit η = c₁Q + c₂Q² misses the first point by far more than the
+// 10-point tolerance [D: the least-squares fit through the origin of a
+// constant cannot be constant].
+func TestFlatEfficiencyRefused(t *testing.T) {
+	pts := []PumpPoint{{Flow: 0, Head: 34}, {Flow: 0.0556, Head: 32.4, Eff: 0.78}, {Flow: 0.0972, Head: 30.2, Eff: 0.78},
+		{Flow: 0.1528, Head: 25.8, Eff: 0.78}, {Flow: 0.2083, Head: 19.8, Eff: 0.78}}
+	_, err := NewPump(pts, PumpOptions{})
+	var pe *PointError
+	var me *EffMissError
+	if !errors.As(err, &pe) || !errors.As(err, &me) || !errors.Is(err, ErrEfficiencyMiss) {
+		t.Fatalf("error %v, want a PointError wrapping an EffMissError", err)
+	}
+	if pe.Field != "efficiency" || pe.Index != 1 {
+		t.Errorf("point %d field %q, want the first point with flow (1), efficiency", pe.Index, pe.Field)
+	}
+	if me.Given != 0.78 || math.Abs(me.Fitted-me.Given) <= EffMissTolerance || me.Misses < 1 {
+		t.Errorf("%+v: want the given 78 %% missed by more than the tolerance", me)
+	}
+	// The same datasheet with an efficiency curve rising from low flow fits.
+	rising := append([]PumpPoint(nil), pts...)
+	for i, e := range []float64{0, 0.58, 0.76, 0.85, 0.79} {
+		rising[i].Eff = e
+	}
+	if _, err := NewPump(rising, PumpOptions{}); err != nil {
+		t.Errorf("a rising efficiency curve: %v", err)
+	}
+}

@@ -4,14 +4,24 @@ import "math"
 
 // atHead allocates the pumped flow Q among the running units at header head
 // h: fixed-speed units give what their curves give; the variable ones share
-// the rest at equal marginal power (or at one common speed).
+// the rest at equal marginal power (or at one common speed), a local
+// optimum of the split (the head search's many trial heads use it; the
+// states it keeps get the global split of splitGlobal).
 func (s *Solver) atHead(cnt []int, Q, h float64) (*state, side) {
-	return s.atHeadMode(cnt, Q, h, true)
+	return s.atHeadMode(cnt, Q, h, splitLocal)
 }
 
-// atHeadMode is atHead; with full false the variable units' flow is split in
-// proportion to their allowed ranges instead of at equal marginal power.
-func (s *Solver) atHeadMode(cnt []int, Q, h float64, full bool) (*state, side) {
+// splitMode says how atHeadMode shares the flow among variable models.
+type splitMode uint8
+
+const (
+	splitProportional splitMode = iota // in proportion to their allowed ranges
+	splitLocal                         // at equal marginal power (newtonSplit)
+	splitGlobal                        // the best of every local minimum (acrossModels)
+)
+
+// atHeadMode is atHead with the split chosen by mode.
+func (s *Solver) atHeadMode(cnt []int, Q, h float64, mode splitMode) (*state, side) {
 	spans := s.scratch(&s.allocSpans, len(cnt))
 	qvar, vars, sd := s.sides(cnt, Q, h, spans)
 	if sd != fits {
@@ -29,8 +39,10 @@ func (s *Solver) atHeadMode(cnt []int, Q, h float64, full bool) (*state, side) {
 			if !s.commonSpeed(st, vars, spans, qvar) {
 				return nil, tooLittle
 			}
-		case full:
-			s.equalMarginal(st, vars, spans, qvar)
+		case mode == splitLocal:
+			s.equalMarginal(st, vars, spans, qvar, false)
+		case mode == splitGlobal:
+			s.equalMarginal(st, vars, spans, qvar, true)
 		default:
 			proportional(st, vars, spans, qvar)
 		}

@@ -15,7 +15,9 @@
 //	Q_p = max(Q, Q_min,plant)
 //
 // (the difference goes through the bypass) against a header head H that is
-// at least the system's need H_sys(Q) on the control curve:
+// at least the system's need H_sys(Q) on the control curve at the load flow
+// (the bypass at the plant; with plant.Plant.BypassAtLoopEnd, at the pumped
+// flow Q_p, the whole of it crossing the loop):
 //
 //	minimise  Σ_units P_in,i(q_i, H)
 //	subject to  Σ_units q_i = Q_p,  H ≥ H_sys(Q),  each q_i in its allowed range at H
@@ -56,7 +58,15 @@
 // of the power, with derivatives by central differences, subject to the
 // flow sum and the bounds, exactly (the multiplier λ lies between two
 // breakpoints of a piecewise-linear sum), then backtracks on the true
-// power. Identical units of a model share equally. To save time every
+// power. Identical units of a model share equally. Where a model's power is
+// not convex in its flow (an efficiency rising slowly from zero flow, the
+// Sârbu–Borza floor, a drive table's kinks) the split between models can
+// have two minima, the better one often with a unit at its minimum flow or
+// runout: then, or where a bound of the split already beats the Newton
+// split, the split is scanned from bound to bound and both ends and every
+// local minimum are refined by golden section (acrossModels); the head
+// search's many trial heads use the Newton split alone and the head it
+// keeps gets this global one. To save time every
 // combination is first costed with the variable flow split in proportion
 // to the models' ranges (exact for one variable model); only those within
 // 3 % of the best get the full allocation.
@@ -80,7 +90,10 @@
 // only on the falling branch, at least 2 % right of the peak, where flow is
 // a single-valued function of head (on the rising side two flows share a
 // head and parallel units hunt; common practice). The peak acts as a
-// further minimum flow.
+// further minimum flow. Its head, above the shutoff head, is the top of
+// every head bound (the head grid, the lowest feasible head, the head
+// search, the capacity behind an unmet result): a fixed-speed unit there
+// serves flows on its falling branch at heads above shutoff.
 //
 // The method was chosen over a general constrained solver (gonum/optimize)
 // because the structure — separable power, one coupling constraint, one

@@ -6,18 +6,24 @@ import (
 	"wattstage/curves"
 )
 
-// headCap is the highest header head any running unit of the combo can
-// make (its shutoff head at maximum speed).
+// headCap is the highest header head every running unit of the combo can
+// make: the least, over its models, of the curve's maximum head at the top
+// speed, s_max²·max H₀eff. On a humped curve that maximum is the peak, above
+// the shutoff head, and a fixed-speed unit there serves flows on its falling
+// branch at heads above shutoff.
 func (s *Solver) headCap(cnt []int) float64 {
 	hc := math.Inf(1)
 	for i, n := range cnt {
 		if n > 0 {
-			u := s.units[i]
-			hc = math.Min(hc, u.c[0]*u.smax*u.smax)
+			hc = math.Min(hc, s.units[i].topHead())
 		}
 	}
 	return hc
 }
+
+// topHead is the highest header head a unit can make: its curve's maximum
+// head at its top speed (affinity laws, H = s²·H₀).
+func (u *unitModel) topHead() float64 { return u.hmax * u.smax * u.smax }
 
 // mayRise reports whether a combo that fails at the required head could
 // serve the flow at a higher header head: the flows its units give at their

@@ -66,32 +66,50 @@ type fzPlant struct {
 // c = 1 − k/2, which is 0 at x = 0, peaks at η_b at x = Q/Q_BEP = 1 and for
 // k in [1, 3] stays positive up to x = √3 (the same family as the
 // optimality suite's pumps).
-func fzPump(r *fzBytes, allowHumped bool) (*curves.Pump, error) {
-	qb := curves.Flow(r.logIn(0.003, 0.3)) // m³/s: about 50 to 4800 gpm
-	hb := r.logIn(4, 120)                  // m
-	etab := r.in(0.45, 0.9)
-	shut := r.in(1.08, 1.6)
-	k := r.in(1, 3)
-	last := r.in(1.2, 1.5)
-	humped := r.pick(5) == 0 && allowHumped // the byte is read either way
+func fzPump(r *fzBytes, allowHumped bool) (fzShape, *curves.Pump, error) {
+	sh := fzShape{qb: curves.Flow(r.logIn(0.003, 0.3)), // m³/s: about 50 to 4800 gpm
+		hb: r.logIn(4, 120), etab: r.in(0.45, 0.9), shut: r.in(1.08, 1.6), k: r.in(1, 3), last: r.in(1.2, 1.5)}
+	sh.humped = r.pick(5) == 0 && allowHumped // the byte is read either way
+	sh.speedCorrection = r.pick(3) == 0
+	p, err := sh.build()
+	return sh, p, err
+}
+
+// fzShape is the shape a fuzz pump is built from.
+type fzShape struct {
+	qb                      curves.Flow // BEP flow, m³/s
+	hb, etab, shut, k, last float64     // BEP head m, BEP efficiency, shutoff/BEP head, −η''(1)/η_b, last flow/BEP flow
+	humped, speedCorrection bool
+}
+
+func (sh fzShape) build() (*curves.Pump, error) {
 	head := func(x float64) float64 {
-		if humped {
+		if sh.humped {
 			return 1.1 + 0.4*x - 0.4*x*x - 0.1*x*x*x
 		}
-		return shut - (shut-1)*x*x
+		return sh.shut - (sh.shut-1)*x*x
 	}
+	k := sh.k
 	a, b, c := 3-k/2, k-3, 1-k/2
 	var pts []curves.PumpPoint
-	for _, x := range []float64{0, 0.25, 0.5, 0.75, 1, 1.1, last} {
-		pts = append(pts, curves.PumpPoint{Flow: curves.Flow(x) * qb, Head: curves.Head(hb * head(x)),
-			Eff: etab * x * (a + x*(b+x*c))})
+	for _, x := range []float64{0, 0.25, 0.5, 0.75, 1, 1.1, sh.last} {
+		pts = append(pts, curves.PumpPoint{Flow: curves.Flow(x) * sh.qb, Head: curves.Head(sh.hb * head(x)),
+			Eff: sh.etab * x * (a + x*(b+x*c))})
 	}
-	opt := curves.PumpOptions{SpeedCorrection: r.pick(3) == 0}
-	if humped {
+	opt := curves.PumpOptions{SpeedCorrection: sh.speedCorrection}
+	if sh.humped {
 		opt.HeadDegree, opt.AllowRising = 3, true
 	}
 	return curves.NewPump(pts, opt)
 }
+
+// fzSlowRiseK maps k from [1, 3] onto [3, 5.5]: an efficiency that rises
+// slowly from zero flow (η₀'(0) = η_b(3 − k/2) falls to 0.25·η_b), so that
+// a unit's power is not convex in its flow at low flow and the split
+// between two models can have two minima. At k = 5.5 the efficiency is
+// still positive at x = 1.5 [D: a = 0.25, b = 2.5, c = −1.75, so
+// η₀/η_b = 1.5·(0.25 + 3.75 − 3.9375) = 0.094 there].
+func fzSlowRiseK(k float64) float64 { return 3 + (k-1)*1.25 }
 
 // fzDriveTable is a drive efficiency table in the shape of published VFD
 // part-load data (US DOE Motor Systems Tip Sheet #11, DOMAIN §5); plant
@@ -116,11 +134,14 @@ func fzBuild(data []byte, allowHumped bool) (*fzPlant, error) {
 	p := &plant.Plant{Name: "fuzz", Fluid: curves.Fluid{Density: rho, Temperature: temp, SG: rho / 999.972}}
 	n := 1 + r.pick(4)
 	capacity, topHead := 0.0, 0.0
+	shapes := make([]fzShape, n)
+	motorFactor := make([]float64, n)
 	for i := 0; i < n; i++ {
-		pump, err := fzPump(r, allowHumped)
+		sh, pump, err := fzPump(r, allowHumped)
 		if err != nil {
 			return nil, fmt.Errorf("model %d: %w", i, err)
 		}
+		shapes[i] = sh
 		m := plant.Model{Name: fmt.Sprintf("P%d", i+1), Count: 1 + r.pick(3), RatedSpeed: 1780, Pump: pump,
 			MinSpeed: 1, MaxSpeed: 1}
 		switch r.pick(4) {
@@ -156,7 +177,8 @@ func fzBuild(data []byte, allowHumped bool) (*fzPlant, error) {
 		// Motor size from the shaft power at runout: sometimes too small
 		// there (so the overload limit binds), never too small at the
 		// design duty (fixed below, as the plant loader demands).
-		m.Motor.Rated = pump.ShaftPower(m.Runout, 1, rho) * curves.Power(r.in(0.6, 1.6))
+		motorFactor[i] = r.in(0.6, 1.6)
+		m.Motor.Rated = pump.ShaftPower(m.Runout, 1, rho) * curves.Power(motorFactor[i])
 		p.Models = append(p.Models, m)
 		capacity += float64(m.Count) * float64(m.Runout) * m.MaxSpeed
 		topHead = math.Max(topHead, float64(pump.ShutoffHead())*m.MaxSpeed*m.MaxSpeed)
@@ -178,6 +200,37 @@ func fzBuild(data []byte, allowHumped bool) (*fzPlant, error) {
 	if r.pick(2) == 0 {
 		p.MinFlow = qd * curves.Flow(r.in(0, 0.4))
 	}
+	f := &fzPlant{p: p, common: r.pick(2) == 0}
+	switch r.pick(8) {
+	case 0:
+		f.load = 0
+	case 1:
+		f.load = qd
+	default:
+		f.load = qd * curves.Flow(r.in(0, 1.3))
+	}
+	// Read last, so that the inputs before it keep their plants (zero past
+	// the end): the plant's bypass at the loop's end, and efficiency curves
+	// that rise slowly from zero flow on the variable-speed, falling-curve
+	// models (the shape of a split between models with two minima).
+	extra := r.u8()
+	p.BypassAtLoopEnd = extra&1 == 1
+	if extra >= 192 {
+		for i := range p.Models {
+			m := &p.Models[i]
+			if !m.Variable() || shapes[i].humped {
+				continue
+			}
+			sh := shapes[i]
+			sh.k = fzSlowRiseK(sh.k)
+			pump, err := sh.build()
+			if err != nil {
+				return nil, fmt.Errorf("model %d, slow-rising efficiency: %w", i, err)
+			}
+			m.Pump = pump
+			m.Motor.Rated = pump.ShaftPower(m.Runout, 1, rho) * curves.Power(motorFactor[i])
+		}
+	}
 	// The plant loader refuses a motor below the shaft power at rated speed
 	// where the curve meets the design head (runout at most): raise it to
 	// that duty where the draw made it smaller.
@@ -189,15 +242,6 @@ func fzBuild(data []byte, allowHumped bool) (*fzPlant, error) {
 				m.Motor.Rated = need * 1.001
 			}
 		}
-	}
-	f := &fzPlant{p: p, common: r.pick(2) == 0}
-	switch r.pick(8) {
-	case 0:
-		f.load = 0
-	case 1:
-		f.load = qd
-	default:
-		f.load = qd * curves.Flow(r.in(0, 1.3))
 	}
 	return f, nil
 }
@@ -243,7 +287,11 @@ func fzCheck(t *testing.T, data []byte, allowHumped bool) {
 		t.Fatalf("the generator built an invalid pump: %v", err)
 	}
 	res := optimize.New(fp.p, optimize.Options{CommonSpeed: fp.common}).Solve(fp.load)
-	if bad := fzInvariants(fp, &res); len(bad) > 0 {
+	bad := fzInvariants(fp, &res)
+	if len(bad) == 0 && res.Status == optimize.Served && !fp.common {
+		bad = fzPairExchange(fp, &res)
+	}
+	if len(bad) > 0 {
 		msg := fmt.Sprintf("%d invariant(s) broken:\n", len(bad))
 		for _, b := range bad {
 			msg += "  - " + b + "\n"
@@ -329,6 +377,9 @@ func fzInvariants(fp *fzPlant, r *optimize.Result) []string {
 		fail("PumpedFlow %.12g, want max(load, plant minimum) = %.12g", float64(r.PumpedFlow), float64(pumped))
 	}
 	req := p.System.Required(fp.load)
+	if p.BypassAtLoopEnd {
+		req = p.System.Required(pumped)
+	}
 	if math.Abs(float64(r.RequiredHead-req)) > 1e-12*math.Abs(float64(req)) {
 		fail("RequiredHead %.12g m, the system gives %.12g m", float64(r.RequiredHead), float64(req))
 	}
@@ -422,6 +473,63 @@ func fzInvariants(fp *fzPlant, r *optimize.Result) []string {
 	}
 	if math.Abs(sumP-float64(r.Power)) > 1e-9*math.Abs(float64(r.Power)) {
 		fail("unit inputs sum to %.12g W, Power %.12g W", sumP, float64(r.Power))
+	}
+	return bad
+}
+
+// fzPairExchange is a necessary condition of the optimum that needs no
+// reference: at the result's header head, moving flow between one running
+// unit of one variable-speed model and one of another (the others left as
+// they are) must not save more than the suite's 0.05 %. Each pair's split
+// is scanned on 96 points from one unit at its lowest allowed flow to the
+// other at its, every point checked against every limit with the
+// reference's own physics (refUnitSpeed, refNetHead). Humped models are left
+// out: the solver keeps their units off the rising side of the hump, which
+// the scan would not.
+func fzPairExchange(fp *fzPlant, r *optimize.Result) []string {
+	p := fp.p
+	h := r.HeaderHead
+	power := func(mi int, q curves.Flow) (float64, bool) {
+		m := &p.Models[mi]
+		s, ok := refUnitSpeed(m, q, h)
+		if !ok || float64(q) < float64(m.MinFlow)*s*(1-1e-9) || (m.Runout > 0 && float64(q) > float64(m.Runout)*s*(1+1e-9)) {
+			return 0, false
+		}
+		shaft := m.Pump.ShaftPower(q, s, p.Fluid.Density)
+		if float64(shaft) > float64(m.Motor.Rated)*m.Motor.SF()*(1+1e-9) {
+			return 0, false
+		}
+		return float64(m.Drive.Input(m.Motor, shaft, s).Electrical), true
+	}
+	first := map[int]int{} // model → index of its first running unit
+	for i, u := range r.Units {
+		m := &p.Models[u.Model]
+		if _, seen := first[u.Model]; !seen && m.Variable() && m.Pump.ShutoffHead() >= m.Pump.MaxHead() {
+			first[u.Model] = i
+		}
+	}
+	var bad []string
+	for a, ia := range first {
+		for b, ib := range first {
+			if b <= a {
+				continue
+			}
+			ua, ub := r.Units[ia], r.Units[ib]
+			pair := float64(ua.Electrical + ub.Electrical)
+			total := ua.Flow + ub.Flow
+			const n = 96
+			for k := 0; k <= n; k++ {
+				qa := total * curves.Flow(k) / n
+				pa, okA := power(a, qa)
+				pb, okB := power(b, total-qa)
+				if okA && okB && pa+pb < pair-5e-4*float64(r.Power) {
+					bad = append(bad, fmt.Sprintf("at the header head %.9g m, %s at %.9g m³/s and %s at %.9g m³/s draw %.9g W, %.3g %% of the result's %.9g W less than the solver's split (%.9g and %.9g m³/s)",
+						float64(h), p.Models[a].Name, float64(qa), p.Models[b].Name, float64(total-qa), pa+pb,
+						100*(pair-pa-pb)/float64(r.Power), float64(r.Power), float64(ua.Flow), float64(ub.Flow)))
+					break
+				}
+			}
+		}
 	}
 	return bad
 }

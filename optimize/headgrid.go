@@ -10,7 +10,7 @@ const gridPoints = 48
 func (s *Solver) resetGrid(hr float64) {
 	top := hr
 	for _, u := range s.units {
-		top = math.Max(top, u.c[0]*u.smax*u.smax)
+		top = math.Max(top, u.topHead())
 	}
 	if s.grid == nil {
 		s.grid = make([]float64, gridPoints+1)

@@ -5,18 +5,30 @@ import (
 	"sort"
 )
 
-// equalMarginal splits qvar among the variable models so that their
-// marginal powers dP/dQ are equal where no bound binds (the optimality
-// condition for a convex separable cost). It takes projected Newton steps on
-// a local quadratic model, with a backtracking line search on the true
-// power.
-func (s *Solver) equalMarginal(st *state, vars []int, spans []span, qvar float64) {
-	n := func(i int) float64 { return float64(st.counts[i]) }
+// equalMarginal splits qvar among the variable models at the lowest power:
+// at equal marginal powers dP/dQ where no bound binds (the optimality
+// condition for a convex separable cost, found by newtonSplit), and, where
+// a model's power is not convex in its flow, at the best of every local
+// minimum along the split (acrossModels) when global is set.
+func (s *Solver) equalMarginal(st *state, vars []int, spans []span, qvar float64, global bool) {
 	if len(vars) == 1 {
 		i := vars[0]
-		st.q[i] = clamp(qvar/n(i), spans[i].lo, spans[i].hi)
+		st.q[i] = clamp(qvar/float64(st.counts[i]), spans[i].lo, spans[i].hi)
 		return
 	}
+	s.newtonSplit(st, vars, spans, qvar)
+	if global {
+		s.acrossModels(st, vars, spans, qvar)
+	}
+}
+
+// newtonSplit splits qvar among two or more variable models so that their
+// marginal powers are equal where no bound binds. It takes projected Newton
+// steps on a local quadratic model, with a backtracking line search on the
+// true power, from the split in proportion to the models' ranges; on a
+// power that is not convex it stops at a local minimum.
+func (s *Solver) newtonSplit(st *state, vars []int, spans []span, qvar float64) {
+	n := func(i int) float64 { return float64(st.counts[i]) }
 	lo, hi := 0.0, 0.0
 	for _, i := range vars {
 		lo += n(i) * spans[i].lo

@@ -10,7 +10,8 @@ package optimize_test
 // Physics (the same the solver follows, coded again here):
 //
 //	pumped flow       Q = max(load, plant minimum flow)      (bypass, DOMAIN §6)
-//	header head       H ≥ System.Required(load)              (a floor, DOMAIN §10)
+//	header head       H ≥ System.Required(load)              (a floor, DOMAIN §10;
+//	                  at the pumped flow Q with the bypass at the loop's end)
 //	unit i            H + K_i q_i² = s_i² H₀(q_i/s_i)         (affinity laws, DOMAIN §3)
 //	flow balance      Σ q_i = Q
 //	limits            MinSpeed ≤ s ≤ MaxSpeed (s = 1 for a fixed-speed unit),
@@ -86,7 +87,13 @@ func newRefProblem(p *plant.Plant, load curves.Flow) *refProblem {
 	if p.MinFlow > pumped {
 		pumped = p.MinFlow
 	}
-	return &refProblem{p: p, load: load, pumped: pumped, required: p.System.Required(load), density: p.Fluid.Density, gridScale: 1}
+	// The bypass at the plant (the default): the loop carries the load flow
+	// and needs its head; at the loop's far end it carries the pumped flow.
+	required := p.System.Required(load)
+	if p.BypassAtLoopEnd {
+		required = p.System.Required(pumped)
+	}
+	return &refProblem{p: p, load: load, pumped: pumped, required: required, density: p.Fluid.Density, gridScale: 1}
 }
 
 // refSolve runs the brute-force reference for one load.

@@ -147,6 +147,9 @@ var (
 	pumpS  = suitePump{bepFlow: 0.02, bepHead: 30, bepEff: 0.74} // ≈ 11 hp
 	pumpP2 = suitePump{bepFlow: 0.03, bepHead: 45, bepEff: 0.78} // ≈ 23 hp, 2-pole
 	pumpHm = suitePump{bepFlow: 0.10, bepHead: 30, bepEff: 0.83, humped: true}
+	// Efficiency rising slowly from zero flow: η₀/η_b = 1.85x + 1.3x² − 2.15x³.
+	slowRiseA = suitePump{bepFlow: 0.10, bepHead: 37, bepEff: 0.72, shutoff: 1.14, effK: 4.3, speedCorrection: true}
+	slowRiseB = suitePump{bepFlow: 0.058, bepHead: 26, bepEff: 0.72, shutoff: 1.32, effK: 4.3, speedCorrection: true}
 )
 
 func with(p suitePump, f func(*suitePump)) suitePump { f(&p); return p }
@@ -164,6 +167,7 @@ type suitePlant struct {
 	name    string
 	system  curves.System
 	minFlow curves.Flow
+	loopEnd bool    // the plant-minimum bypass at the loop's far end
 	tempC   float64 // fluid temperature, °C; 0 means 7 (chilled water)
 	models  []suiteModel
 }
@@ -179,7 +183,7 @@ func (s suitePlant) build(t testing.TB) *plant.Plant {
 		t.Fatal(err)
 	}
 	p := &plant.Plant{Name: s.name, Fluid: curves.Fluid{Density: rho, Temperature: temp, SG: rho / 999.972},
-		System: s.system, MinFlow: s.minFlow}
+		System: s.system, MinFlow: s.minFlow, BypassAtLoopEnd: s.loopEnd}
 	for _, m := range s.models {
 		pm := m.build(t)
 		if err := refCheckModel(&pm); err != nil {
@@ -249,6 +253,7 @@ func suitePlants(t testing.TB) []*plant.Plant {
 		{name: "fixed-system-static-50", system: fixedCurve(0.25, 30, 0.5), models: []suiteModel{L}},
 		{name: "fixed-system-static-80-two-sizes", system: fixedCurve(0.22, 30, 0.8), models: []suiteModel{n(L, 2), M}},
 		{name: "plant-minimum-flow", system: dp(0.25, 30, 0.4), minFlow: 0.06, models: []suiteModel{L}},
+		{name: "plant-minimum-flow-loop-end", system: dp(0.25, 30, 0.4), minFlow: 0.06, loopEnd: true, models: []suiteModel{L}},
 		{name: "branch-losses", system: dp(0.25, 30, 0.4), models: []suiteModel{
 			mod(L, func(m *suiteModel) { m.branchFrac = 0.05 })}},
 		{name: "branch-losses-mixed", system: dp(0.22, 28, 0.4), models: []suiteModel{
@@ -260,6 +265,19 @@ func suitePlants(t testing.TB) []*plant.Plant {
 			{name: "P2", count: 1, pump: pumpP2, motorHP: 30, poles: 2}}},
 		{name: "humped", system: dp(0.25, 28, 0.5), models: []suiteModel{
 			{name: "H", count: 3, pump: pumpHm, motorHP: 60, minFlowX: 0.45}}},
+		// Fixed-speed units on a humped curve serve flows on its falling
+		// branch at heads above the shutoff head (issue: heads were capped
+		// at shutoff), beside a variable-speed unit of the same curve.
+		{name: "humped-fixed", system: dp(0.25, 28, 0.5), models: []suiteModel{
+			{name: "H-fixed", count: 2, pump: pumpHm, motorHP: 60, minFlowX: 0.45, drive: curves.FixedSpeed{}},
+			{name: "H", count: 1, pump: pumpHm, motorHP: 60, minFlowX: 0.45}}},
+		// Two models whose efficiency rises slowly from zero flow (effK
+		// 4.3), with the Sârbu–Borza step-down: the power along the split
+		// between them can have two minima, the better one with a unit at
+		// its minimum flow.
+		{name: "slow-rise-two-models", system: dp(0.16, 28, 0.34), models: []suiteModel{
+			{name: "A", count: 2, pump: slowRiseA, motorHP: 100, minFlowX: 0.10},
+			{name: "B", count: 1, pump: slowRiseB, motorHP: 40, minFlowX: 0.19}}},
 		{name: "speed-correction", system: dp(0.25, 30, 0.3), tempC: 60, models: []suiteModel{
 			mod(L, func(m *suiteModel) { m.pump.speedCorrection = true })}},
 		{name: "setpoint-reset", models: []suiteModel{L}, system: curves.DPControl{DesignFlow: 0.25, DesignHead: 30, ControlHead: 12,
@@ -461,8 +479,12 @@ func suiteInvariants(p *plant.Plant, load curves.Flow, common bool, r *optimize.
 	if rel(float64(r.BypassFlow), float64(pumped-load)) > 1e-9 && math.Abs(float64(r.BypassFlow-(pumped-load))) > 1e-12 {
 		fail("BypassFlow %g, want %g", float64(r.BypassFlow), float64(pumped-load))
 	}
-	if rel(float64(r.RequiredHead), float64(p.System.Required(load))) > 1e-12 {
-		fail("RequiredHead %g, system gives %g", float64(r.RequiredHead), float64(p.System.Required(load)))
+	loopFlow := load // the flow through the loop: the load's, or the pumped flow with the bypass at its end
+	if p.BypassAtLoopEnd {
+		loopFlow = pumped
+	}
+	if rel(float64(r.RequiredHead), float64(p.System.Required(loopFlow))) > 1e-12 {
+		fail("RequiredHead %g, system gives %g", float64(r.RequiredHead), float64(p.System.Required(loopFlow)))
 	}
 	if r.HeaderHead < r.RequiredHead*(1-1e-9) {
 		fail("HeaderHead %.9g below RequiredHead %.9g", float64(r.HeaderHead), float64(r.RequiredHead))

@@ -26,7 +26,11 @@ type unitModel struct {
 	qmin     float64 // minimum flow at rated speed, m³/s
 	qrun     float64 // runout at rated speed, m³/s
 	shaftMax float64 // W, rated × service factor
-	rho      float64
+	// hmax is the highest head of the effective curve at rated speed, m:
+	// the shutoff head for a curve that falls from zero flow, the peak of a
+	// humped one (which lies above its shutoff head).
+	hmax float64
+	rho  float64
 	// mayOverload is false when no allowed state can exceed shaftMax: the
 	// shaft power at top speed, over every flow up to runout, stays below it
 	// (shaft power rises with speed at a given rated-equivalent flow).
@@ -52,9 +56,11 @@ func newUnitModel(idx int, m *plant.Model, rho float64) *unitModel {
 	// of the peak, where flow is a well-defined function of head (on the
 	// rising side two flows share a head and parallel units hunt; common
 	// practice). The peak acts as a further minimum flow.
-	if xp := u.peakX(); xp > 0 {
+	xp := u.peakX()
+	if xp > 0 {
 		u.qmin = math.Max(u.qmin, 1.02*xp)
 	}
+	u.hmax = u.h0(xp)
 	u.mayOverload = u.peakShaft() > 0.999*u.shaftMax
 	return u
 }

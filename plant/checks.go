@@ -93,12 +93,13 @@ func (d *decoder) checkMotorAtDesign(s *pumpSpec, sys *systemSpec) {
 	}
 }
 
-// checkShutoff refuses a design head above every model's shutoff head at
-// its maximum speed, and warns of models that cannot reach it.
+// checkShutoff refuses a design head above every model's highest head at
+// its maximum speed (the shutoff head, or the peak of a humped curve, which
+// lies above it), and warns of models that cannot reach it.
 func (d *decoder) checkShutoff(fitted []*pumpSpec, allFitted bool, sys *systemSpec) {
 	var short []string
 	for _, s := range fitted {
-		sh := curves.Head(float64(s.model.Pump.ShutoffHead()) * s.model.MaxSpeed * s.model.MaxSpeed)
+		sh := curves.Head(float64(s.model.Pump.MaxHead()) * s.model.MaxSpeed * s.model.MaxSpeed)
 		if sh > sys.designHead {
 			continue
 		}
@@ -107,11 +108,11 @@ func (d *decoder) checkShutoff(fitted []*pumpSpec, allFitted bool, sys *systemSp
 	switch {
 	case len(short) == 0:
 	case len(short) == len(fitted) && allFitted:
-		d.errorf(sys.headNode, "system.design_head", "%s is above the shutoff head of every pump at its maximum speed (%s): no unit can deliver the design head",
+		d.errorf(sys.headNode, "system.design_head", "%s is above the highest head (shutoff, or the peak of a humped curve) of every pump at its maximum speed (%s): no unit can deliver the design head",
 			d.fmtHead(sys.designHead), strings.Join(short, ", "))
 	default:
 		for _, s := range short {
-			d.warnf(sys.headNode, "system.design_head", "%s is not below the shutoff head of %s: that unit cannot run at design head", d.fmtHead(sys.designHead), s)
+			d.warnf(sys.headNode, "system.design_head", "%s is not below the highest head (shutoff, or the peak of a humped curve) of %s: that unit cannot run at design head", d.fmtHead(sys.designHead), s)
 		}
 	}
 }

@@ -67,6 +67,7 @@
 //	  # fixed_curve:                     # … an open or fixed system: static + k Q²
 //	  #   static_head: 12
 //	  plant_min_flow: 600                # optional: chiller/boiler minimum held by a bypass
+//	  bypass_at: plant                   # optional: plant (default) or loop_end
 //
 //	profile:                             # bins, or a trend
 //	  bins:
@@ -147,7 +148,24 @@
 // Give at least three points (four for a cubic head fit) in order of rising
 // flow, each with a head and, where the flow is above zero, an efficiency
 // or a shaft power (at water of 998.2 kg/m³, the datasheet convention).
-// The fits and their residuals are in [curves.Pump].
+// The fits and their residuals are in [curves.Pump]. The efficiency is
+// fitted through zero at zero flow, so the points must show the datasheet's
+// efficiency curve with its rise from low flow to the best efficiency point
+// and past it; a fit that misses a given point by more than
+// [curves.EffMissTolerance] (10 points of efficiency) is refused with that
+// point named — one constant efficiency at every point is the usual cause.
+//
+// # Plant minimum flow and its bypass
+//
+// Below plant_min_flow the pumps move the minimum flow and a bypass carries
+// the difference. Where that bypass sits sets the head the pumps work
+// against. bypass_at: plant (the default) is a bypass in the plant, across
+// the pumps' header: the loop beyond it carries only the load flow, and the
+// pumps make the head the system needs at the load flow. bypass_at:
+// loop_end is a bypass at the far end of the loop (a three-way valve at the
+// last coil, say): the whole pumped flow crosses the loop, and the pumps
+// make the head the system needs at the pumped flow. The default is listed
+// among the plant's defaults when a minimum flow is given.
 //
 // # Drives
 //
@@ -177,10 +195,11 @@
 // efficiencies above 100 %, negative flows, a minimum speed above the
 // maximum, fewer than three points, duplicate or unsorted flows, a head
 // curve rising with flow, a best efficiency point outside the points, a
-// minimum flow at or above BEP, a design head above the shutoff head of
-// every pump at its maximum speed, a motor smaller (even with its service
-// factor) than the pump's shaft power at the design head, a control head
-// or static head above the design head, reset flows out of order,
+// minimum flow at or above BEP, a design head above the highest head
+// (shutoff, or a hump's peak) of every pump at its maximum speed, a motor
+// smaller (even with its service factor) than the pump's shaft power at
+// the design head, a control head or static head above the design head,
+// reset flows out of order,
 // overlapping tariff periods, bins adding up to more than a year, and unit
 // mistakes that show: a pump that would need ten times its motor at its
 // own BEP, or a design flow ten times what every unit can deliver. A file

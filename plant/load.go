@@ -285,6 +285,7 @@ func (d *decoder) plant(root *yaml.Node) *Plant {
 	if sys != nil {
 		p.System, p.DesignFlow, p.DesignHead, p.MinFlow = sys.curve, sys.designFlow, sys.designHead, sys.minFlow
 		p.DPSensor = sys.sensor
+		p.BypassAtLoopEnd = sys.loopEnd
 	}
 	p.Profile = d.profile(d.required(top, "profile", "the load profile (bins or trend)"), sys)
 	p.Tariff = d.tariff(d.required(top, "tariff", "the tariff (at least energy_price and currency)"))

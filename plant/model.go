@@ -19,6 +19,13 @@ type Plant struct {
 	DesignFlow curves.Flow   // m³/s
 	DesignHead curves.Head   // m
 	MinFlow    curves.Flow   // plant minimum flow held by a bypass, m³/s; 0 = none
+	// BypassAtLoopEnd places the bypass that holds MinFlow at the far end of
+	// the loop: below the minimum flow the pumped flow crosses the whole
+	// loop, and the pumps work against the head the system needs at the
+	// pumped flow. False (the default): the bypass is at the plant, the loop
+	// carries only the load flow, and the head is the system's need at the
+	// load flow.
+	BypassAtLoopEnd bool
 
 	Profile  Profile
 	Tariff   econ.Tariff
@@ -125,4 +132,14 @@ func (s *Sequence) RunningAt(q curves.Flow) int {
 		}
 	}
 	return s.Bands[len(s.Bands)-1].Running
+}
+
+// RequiredHead is the head the pumps must make at a load flow: the
+// system's need at the load flow, or, with the bypass at the loop's far end
+// (BypassAtLoopEnd), at the pumped flow max(load, MinFlow).
+func (p *Plant) RequiredHead(load curves.Flow) curves.Head {
+	if p.BypassAtLoopEnd && p.MinFlow > load {
+		return p.System.Required(p.MinFlow)
+	}
+	return p.System.Required(load)
 }

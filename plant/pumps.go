@@ -400,6 +400,18 @@ func (d *decoder) pointMessage(s *pumpSpec, pe *curves.PointError) string {
 			d.fmtHead(cur.Head), d.fmtHead(prev.Head))
 	case errors.Is(pe.Err, curves.ErrNoEfficiency):
 		return fmt.Sprintf("a point with flow needs an efficiency (%%) or a shaft_power (%s)", d.units.PowerUnit())
+	case errors.As(pe.Err, new(*curves.EffMissError)):
+		var me *curves.EffMissError
+		errors.As(pe.Err, &me)
+		others := ""
+		if me.Misses > 1 {
+			others = fmt.Sprintf(" (the worst of %d points missed by more than that)", me.Misses)
+		}
+		return fmt.Sprintf("the fitted efficiency curve gives %s %% at %s where %s %% is given, %s points apart, more than the %s-point tolerance%s: "+
+			"the fit starts from zero efficiency at zero flow and needs the datasheet's efficiency curve with its rise from low flow "+
+			"to the best efficiency point and past it; one constant efficiency at every point is not a pump curve",
+			fmtNum(100*me.Fitted), d.fmtFlow(cur.Flow), fmtNum(100*me.Given), fmtNum(100*math.Abs(me.Fitted-me.Given)),
+			fmtNum(100*curves.EffMissTolerance), others)
 	case pe.Field == "shaft_power":
 		return fmt.Sprintf("%s %v at %s and %s", d.fmtPower(cur.Shaft), pe.Err, d.fmtFlow(cur.Flow), d.fmtHead(cur.Head))
 	}

@@ -12,17 +12,18 @@ type systemSpec struct {
 	designFlow curves.Flow
 	designHead curves.Head
 	minFlow    curves.Flow
+	loopEnd    bool // bypass_at: loop_end
 	flowNode   *yaml.Node
 	headNode   *yaml.Node
 	ok         bool   // design flow and head are both valid
 	sensor     string // dp_control.sensor: where the DP sensor is
 }
 
-var systemKeys = []string{"design_flow", "design_head", "dp_control", "fixed_curve", "plant_min_flow"}
+var systemKeys = []string{"design_flow", "design_head", "dp_control", "fixed_curve", "plant_min_flow", "bypass_at"}
 
 // system reads the system the pumps serve.
 func (d *decoder) system(n *yaml.Node) *systemSpec {
-	f := d.mapping(n, "system", "design_flow, design_head, dp_control or fixed_curve, plant_min_flow", systemKeys...)
+	f := d.mapping(n, "system", "design_flow, design_head, dp_control or fixed_curve, plant_min_flow, bypass_at", systemKeys...)
 	if f == nil {
 		return nil
 	}
@@ -64,6 +65,18 @@ func (d *decoder) system(n *yaml.Node) *systemSpec {
 		}
 	} else if !f.has("plant_min_flow") {
 		d.defaultf("system.plant_min_flow", "none (no bypass: the pumps follow the load down; give the chiller or boiler minimum flow if there is one)")
+	}
+	if bn := d.value(f, "bypass_at"); bn != nil {
+		switch v, _ := d.text(bn, "system.bypass_at"); v {
+		case "plant":
+		case "loop_end":
+			s.loopEnd = true
+		case "":
+		default:
+			d.errorf(bn, "system.bypass_at", "must be plant or loop_end, not %q", clip(v))
+		}
+	} else if s.minFlow > 0 {
+		d.defaultf("system.bypass_at", "plant: below the plant minimum flow the bypass at the plant carries the difference and the pumps make the head the system needs at the load flow (give loop_end for a bypass at the far end of the loop: the head at the pumped flow)")
 	}
 	if s.curve == nil {
 		s.ok = false
