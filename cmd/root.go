@@ -8,6 +8,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"wattstage/internal/version"
 	"wattstage/plant"
 	"wattstage/profile"
 )
@@ -79,7 +80,10 @@ motor cooling at low speed and resonance with the manufacturers, and have a
 licensed engineer approve any change to a sequence or a retrofit.`,
 		SilenceUsage:  true,
 		SilenceErrors: true,
+		// --version: module version, commit and date from the build information.
+		Version: version.String(),
 	}
+	root.SetVersionTemplate("{{.Version}}\n")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 	root.AddCommand(
 		NewCmdCheck(streams, nil),
