@@ -86,6 +86,7 @@ licensed engineer approve any change to a sequence or a retrofit.`,
 	root.SetVersionTemplate("{{.Version}}\n")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 	root.AddCommand(
+		NewCmdInit(streams, nil),
 		NewCmdCheck(streams, nil),
 		NewCmdPoint(streams, nil),
 		NewCmdPlan(streams, nil),
