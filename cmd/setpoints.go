@@ -48,8 +48,15 @@ with the unconstrained optimum and with the plant's current thresholds.`,
 			if opts.Basis != "flow" && opts.Basis != "speed" {
 				return usageError{fmt.Errorf("--basis must be flow or speed")}
 			}
-			if opts.Deadband < 0 || opts.Deadband >= 0.5 {
-				return usageError{fmt.Errorf("--deadband %g: give a fraction from 0 to below 0.5 (0 = default)", opts.Deadband)}
+			for _, d := range []struct {
+				flag string
+				v    time.Duration
+			}{{"up-delay", opts.UpDelay}, {"down-delay", opts.DownDelay}} {
+				if c.Flags().Changed(d.flag) {
+					if err := checkDuration(d.flag, d.v, time.Second, time.Hour); err != nil {
+						return err
+					}
+				}
 			}
 			if runF != nil {
 				return runF(opts)
@@ -58,9 +65,9 @@ with the unconstrained optimum and with the plant's current thresholds.`,
 		},
 	}
 	f := c.Flags()
-	f.Float64Var(&opts.Deadband, "deadband", 0, "stage-down flow below stage-up, as a fraction of the stage-up flow (default 0.10)")
-	f.DurationVar(&opts.UpDelay, "up-delay", 0, "how long a stage-up condition must hold (default 5m)")
-	f.DurationVar(&opts.DownDelay, "down-delay", 0, "how long a stage-down condition must hold (default 10m)")
+	f.Var(&fractionValue{dst: &opts.Deadband, lo: 0.01, hi: 0.45}, "deadband", "stage-down flow below stage-up, as a fraction (0.15) or percentage (15%) of the stage-up flow, 1 % to 45 % (default 10 %)")
+	f.DurationVar(&opts.UpDelay, "up-delay", 0, "how long a stage-up condition must hold, 1s to 1h (default 5m)")
+	f.DurationVar(&opts.DownDelay, "down-delay", 0, "how long a stage-down condition must hold, 1s to 1h (default 10m)")
 	f.StringVar(&opts.Basis, "basis", "flow", "signal the sequence stages on when it is run over the profile: flow or speed")
 	f.BoolVar(&opts.JSON, "json", false, "write the setpoints and their energy price as JSON")
 	return c
