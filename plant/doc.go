@@ -71,7 +71,7 @@
 //	  # trend:
 //	  #   file: chilled-water-trend.csv  # relative to the plant file
 //	  #   time_column: timestamp         # default the first column
-//	  #   time_format: "2006-01-02 15:04"   # Go layout or unix; default: common ones tried
+//	  #   time_format: "YYYY-MM-DD hh:mm"   # or "MM/DD/YYYY h:mm AM", a Go layout, or unix; default: common ones tried
 //	  #   time_zone: America/Chicago     # IANA zone of stamps without offset; default UTC
 //	  #   interval: 60                   # minutes (or "15 min", "1 h"); default the median step
 //	  #   flow_column: plant_flow_gpm    # default the one header containing "flow"
