@@ -12,15 +12,16 @@ import (
 
 // BinsOptions are the inputs of `wattstage bins`.
 type BinsOptions struct {
-	IO         *IO
-	TrendPath  string
-	PlantPath  string // optional: take the column mapping and units from this plant file
-	FlowColumn string
-	TimeColumn string
-	FlowUnit   string
-	TimeZone   string
-	Width      string // bin width in the trend's flow unit
-	JSON       bool
+	IO          *IO
+	TrendPath   string
+	PlantPath   string // optional: take the column mapping and units from this plant file
+	FlowColumn  string
+	TimeColumn  string
+	PowerColumn string // header of the measured pump power in kW; optional
+	FlowUnit    string
+	TimeZone    string
+	Width       string // bin width in the trend's flow unit
+	JSON        bool
 }
 
 // NewCmdBins builds `wattstage bins`.
@@ -53,6 +54,7 @@ plant file with --plant.`,
 	f.StringVar(&opts.PlantPath, "plant", "", "take the column mapping and units from this plant file's trend")
 	f.StringVar(&opts.FlowColumn, "flow-column", "", "header of the flow column")
 	f.StringVar(&opts.TimeColumn, "time-column", "", "header of the timestamp column")
+	f.StringVar(&opts.PowerColumn, "power-column", "", "header of the measured total pump power in kW (optional: adds mean power per bin)")
 	f.StringVar(&opts.FlowUnit, "flow-unit", "", "flow unit: gpm, m3/h or L/s (default: read from the header)")
 	f.StringVar(&opts.TimeZone, "time-zone", "", "IANA zone of stamps without an offset (default: UTC wall clock)")
 	f.StringVar(&opts.Width, "width", "", "bin width: a flow in the trend's unit (200), with a unit (200gpm, 12L/s) or, with --plant, % of design flow (5%); at most 1000 bins and at least one up to the highest flow (default: about 20 bins)")
@@ -79,7 +81,7 @@ func binsRun(opts *BinsOptions) error {
 		dst *string
 		v   string
 	}{
-		{&spec.FlowColumn, opts.FlowColumn}, {&spec.TimeColumn, opts.TimeColumn},
+		{&spec.FlowColumn, opts.FlowColumn}, {&spec.TimeColumn, opts.TimeColumn}, {&spec.PowerColumn, opts.PowerColumn},
 		{&spec.FlowUnit, opts.FlowUnit}, {&spec.TimeZone, opts.TimeZone},
 	} {
 		if kv.v != "" {

@@ -10,6 +10,10 @@
 //	plant.yaml:18:21: pumps[0].motor.rated_output: 10 hp is less than the pump's shaft power at the design head (27.43 hp at 1011 gpm and 90 ft, rated speed), even with service factor 1.15
 //	plant.yaml:19:7: pumps[0].motor.servise_factor: unknown key "servise_factor" (did you mean "service_factor"?)
 //
+// The reference of the format — every section and field with its unit,
+// default, range and the source of the default — is docs/plant-file.md
+// in the repository; a test keeps it in step with this loader.
+//
 // # A plant file
 //
 //	name: North Campus chilled water     # optional; defaults to the file name
