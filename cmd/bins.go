@@ -7,6 +7,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"wattstage/curves"
+	"wattstage/plant"
 	"wattstage/profile"
 )
 
@@ -22,6 +23,7 @@ type BinsOptions struct {
 	TimeZone    string
 	Width       string // bin width in the trend's flow unit
 	JSON        bool
+	AsProfile   bool // write the bins as a plant file's profile: block
 }
 
 // NewCmdBins builds `wattstage bins`.
@@ -40,6 +42,7 @@ header containing "flow" is the flow, with its unit read from the header
 plant file with --plant.`,
 		Example: `  wattstage bins examples/chilled-water-trend.csv
   wattstage bins examples/chilled-water-trend.csv --width 200
+  wattstage bins examples/chilled-water-trend.csv --as-profile --time-zone America/Chicago
   wattstage bins log.csv --flow-column "CHW Flow" --flow-unit L/s --time-zone Europe/Berlin`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
@@ -59,22 +62,26 @@ plant file with --plant.`,
 	f.StringVar(&opts.TimeZone, "time-zone", "", "IANA zone of stamps without an offset (default: UTC wall clock)")
 	f.StringVar(&opts.Width, "width", "", "bin width: a flow in the trend's unit (200), with a unit (200gpm, 12L/s) or, with --plant, % of design flow (5%); at most 1000 bins and at least one up to the highest flow (default: about 20 bins)")
 	f.BoolVar(&opts.JSON, "json", false, "write the bins as JSON")
+	f.BoolVar(&opts.AsProfile, "as-profile", false, "write the bins as a profile: block to paste into a plant file (in the --plant file's units, else the trend's)")
 	return c
 }
 
 func binsRun(opts *BinsOptions) error {
 	var spec profile.TrendSpec
 	var design curves.Flow // the plant's design flow, for --width in %; 0 without --plant
+	var pl *plant.Plant    // the --plant file; nil without
 	if opts.PlantPath != "" {
 		p, err := loadPlant(opts.PlantPath)
 		if err != nil {
 			return err
 		}
-		if p.Profile.Trend == nil {
+		switch {
+		case p.Profile.Trend != nil:
+			spec = *p.Profile.Trend
+		case !opts.AsProfile:
 			return badInputf("--plant %s: the plant file has no trend profile", opts.PlantPath)
 		}
-		spec = *p.Profile.Trend
-		design = p.DesignFlow
+		design, pl = p.DesignFlow, p
 	}
 	spec.Path = opts.TrendPath
 	for _, kv := range []struct {
@@ -102,6 +109,9 @@ func binsRun(opts *BinsOptions) error {
 	b, err := tr.Bin(width)
 	if err != nil {
 		return badInput(err)
+	}
+	if opts.AsProfile {
+		return writeProfileBlock(opts.IO.Out, tr, b, pl)
 	}
 	if opts.JSON {
 		return writeJSON(opts.IO.Out, map[string]any{"trend": tr.Name, "flow_unit": unit, "interval": tr.Interval.String(),
