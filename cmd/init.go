@@ -72,7 +72,11 @@ func initRun(opts *InitOptions) error {
 		_, err := opts.IO.Out.Write(b)
 		return err
 	}
-	return writeNewFile(opts.Output, b, opts.Force)
+	if err := writeNewFile(opts.Output, b, opts.Force); err != nil {
+		return err
+	}
+	fmt.Fprintf(opts.IO.Err, "wrote %s (%s units, %s system); next: wattstage check %s\n", opts.Output, u, s, opts.Output)
+	return nil
 }
 
 // writeNewFile writes b to path: refused when path exists (unless force),
