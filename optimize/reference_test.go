@@ -9,9 +9,9 @@ package optimize_test
 //
 // Physics (the same the solver follows, coded again here):
 //
-//	pumped flow       Q = max(load, plant minimum flow)      (bypass, DOMAIN §6)
-//	header head       H ≥ System.Required(load)              (a floor, DOMAIN §10)
-//	unit i            H + K_i q_i² = s_i² H₀(q_i/s_i)         (affinity laws, DOMAIN §3)
+//	pumped flow       Q = max(load, plant minimum flow)      (bypass, docs/sources.md §6)
+//	header head       H ≥ System.Required(load)              (a floor, docs/sources.md §10)
+//	unit i            H + K_i q_i² = s_i² H₀(q_i/s_i)         (affinity laws, docs/sources.md §3)
 //	flow balance      Σ q_i = Q
 //	limits            MinSpeed ≤ s ≤ MaxSpeed (s = 1 for a fixed-speed unit),
 //	                  MinFlow·s ≤ q ≤ Runout·s, shaft ≤ Rated·SF,
@@ -770,7 +770,7 @@ func suitePlantNamed(t testing.TB, name string) *plant.Plant {
 // and with constant motor and drive efficiencies (and no limit binding)
 // every feasible state at Q maps onto one at λQ with speeds ×λ, flows ×λ,
 // head ×λ² and power ×λ³: the optimum follows the cube law exactly
-// (affinity laws, every pump handbook [P]; DOMAIN §3).
+// (affinity laws, every pump handbook [P]; docs/sources.md §3).
 func TestReferenceCubeLaw(t *testing.T) {
 	p := suitePlantNamed(t, "constant-chain-zero-control")
 	base := curves.Flow(0.20)
@@ -788,7 +788,7 @@ func TestReferenceCubeLaw(t *testing.T) {
 }
 
 // For identical units with convex power curves the equal split is optimal
-// (Viholainen et al. 2013, DOMAIN §7 [M]); the reference, which never
+// (Viholainen et al. 2013, docs/sources.md §7 [M]); the reference, which never
 // assumes it, must land on the best equal split to well within the suite
 // tolerance, and can never be above it (an equal split is one of its
 // states).

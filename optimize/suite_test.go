@@ -197,7 +197,7 @@ func (s suitePlant) build(t testing.TB) *plant.Plant {
 }
 
 // Drive efficiency of a 100 hp VFD at 1.6/12.5/25/42/50/75/100 % load, US DOE
-// Motor Systems Tip Sheet #11 (DOMAIN §5, [C]); plant data here.
+// Motor Systems Tip Sheet #11 (docs/sources.md §5, [C]); plant data here.
 var tipSheet100hp = curves.TableDrive{Table: []curves.LoadEff{
 	{Load: 0.016, Eff: 0.55}, {Load: 0.125, Eff: 0.89}, {Load: 0.25, Eff: 0.94}, {Load: 0.42, Eff: 0.95},
 	{Load: 0.50, Eff: 0.96}, {Load: 0.75, Eff: 0.97}, {Load: 1.00, Eff: 0.97}}}
@@ -566,7 +566,7 @@ func suiteInvariants(p *plant.Plant, load curves.Flow, common bool, r *optimize.
 // parabola; with constant motor and drive efficiencies and no limit
 // binding, the best state at λQ is the best at Q with speeds and flows ×λ,
 // so total power follows the cube law exactly (affinity laws, every pump
-// handbook [P]; DOMAIN §3), and so does the best count.
+// handbook [P]; docs/sources.md §3), and so does the best count.
 func TestCubeLawZeroControlHead(t *testing.T) {
 	p := suitePlantNamed(t, "constant-chain-zero-control")
 	for _, common := range []bool{false, true} {
@@ -597,7 +597,7 @@ func TestCubeLawZeroControlHead(t *testing.T) {
 
 // For n identical units on equal speeds the switch from n to n+1 running is
 // best where their total input powers are equal at the same flow and head
-// (Viholainen et al., Energy Efficiency 6 (2013) 495–509, DOMAIN §7 [M]).
+// (Viholainen et al., Energy Efficiency 6 (2013) 495–509, docs/sources.md §7 [M]).
 // The equal-power flow is found here by bisection on the two fixed-count
 // power curves computed directly (one speed root per point, no search); the
 // optimiser's switch is found by bisection on its running count, and the two
