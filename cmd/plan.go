@@ -299,15 +299,6 @@ func writeProfileLine(out io.Writer, r *study.Input) {
 	}
 }
 
-func fmtFlow(u curves.UnitSystem, q curves.Flow) string { return u.FormatFlow(q) }
-
-func nanOr(v float64) any {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return nil
-	}
-	return v
-}
-
 // plural writes n with the singular or plural noun.
 func plural(n int, one, many string) string {
 	if n == 1 {

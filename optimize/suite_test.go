@@ -149,8 +149,6 @@ var (
 	pumpHm = suitePump{bepFlow: 0.10, bepHead: 30, bepEff: 0.83, humped: true}
 )
 
-func with(p suitePump, f func(*suitePump)) suitePump { f(&p); return p }
-
 func dp(q curves.Flow, h curves.Head, ctlFrac float64) curves.System {
 	return curves.DPControl{DesignFlow: q, DesignHead: h, ControlHead: h * curves.Head(ctlFrac)}
 }
