@@ -772,6 +772,7 @@ func suitePlantNamed(t testing.TB, name string) *plant.Plant {
 // head ×λ² and power ×λ³: the optimum follows the cube law exactly
 // (affinity laws, every pump handbook [P]; docs/sources.md §3).
 func TestReferenceCubeLaw(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	p := suitePlantNamed(t, "constant-chain-zero-control")
 	base := curves.Flow(0.20)
 	ref0 := refSolve(p, base, false)
@@ -793,6 +794,7 @@ func TestReferenceCubeLaw(t *testing.T) {
 // tolerance, and can never be above it (an equal split is one of its
 // states).
 func TestReferenceFindsEqualSplit(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	for _, name := range []string{"identical-3", "two-pole", "branch-losses"} {
 		p := suitePlantNamed(t, name)
 		for _, frac := range []float64{0.2, 0.35, 0.5, 0.65, 0.8} {
@@ -819,6 +821,7 @@ func TestReferenceFindsEqualSplit(t *testing.T) {
 // read off its curve, H = H_b (r − (r−1)(Q/Q_b)²) with the suite's r = 1.25
 // (computed check [D] from the curve's definition).
 func TestReferenceSingleFixedUnit(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	m := suiteModel{name: "F", count: 1, pump: pumpL, motorHP: 60, drive: curves.FixedSpeed{}}.build(t)
 	p := &plant.Plant{Name: "one-fixed", Fluid: curves.Fluid{Density: 999.9}, System: dp(0.1, 20, 0.5), Models: []plant.Model{m}}
 	for _, x := range []float64{0.4, 0.8, 1.0, 1.2} {
@@ -834,6 +837,7 @@ func TestReferenceSingleFixedUnit(t *testing.T) {
 
 // The refined answer must not depend on the grid it started from.
 func TestReferenceGridIndependent(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	if testing.Short() {
 		t.Skip("slow")
 	}
@@ -853,14 +857,22 @@ func TestReferenceGridIndependent(t *testing.T) {
 
 // One common speed is a restriction of individual speeds: never cheaper.
 func TestReferenceCommonNotCheaper(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
+	flows := 9
+	if testing.Short() {
+		flows = 3
+	}
 	for _, name := range []string{"two-sizes", "fixed-small-with-large", "three-models"} {
-		p := suitePlantNamed(t, name)
-		for _, q := range suiteFlows(p, 9) {
-			ind, com := refSolve(p, q, false), refSolve(p, q, true)
-			if com.Feasible && (!ind.Feasible || float64(com.Power) < float64(ind.Power)*(1-1e-9)) {
-				t.Errorf("%s at %.4g m³/s: common speed %.9g W below individual %v %.9g W", name, float64(q),
-					float64(com.Power), ind.Feasible, float64(ind.Power))
+		t.Run(name, func(t *testing.T) {
+			t.Parallel()
+			p := suitePlantNamed(t, name)
+			for _, q := range suiteFlows(p, flows) {
+				ind, com := refSolve(p, q, false), refSolve(p, q, true)
+				if com.Feasible && (!ind.Feasible || float64(com.Power) < float64(ind.Power)*(1-1e-9)) {
+					t.Errorf("%s at %.4g m³/s: common speed %.9g W below individual %v %.9g W", name, float64(q),
+						float64(com.Power), ind.Feasible, float64(ind.Power))
+				}
 			}
-		}
+		})
 	}
 }

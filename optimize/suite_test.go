@@ -316,7 +316,7 @@ const suiteTol = 5e-4
 
 func suiteNumFlows() int {
 	if testing.Short() {
-		return 9
+		return 4 // the quick loop: below, across and beyond the stagings
 	}
 	return 25
 }
@@ -326,6 +326,7 @@ func suiteNumFlows() int {
 // speed and with one common speed, and checks power (within 0.05 %),
 // feasibility and the invariants of every served result.
 func TestOptimiserMatchesReference(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	for _, p := range suitePlants(t) {
 		for _, common := range []bool{false, true} {
 			mode := "individual"
@@ -566,6 +567,7 @@ func suiteInvariants(p *plant.Plant, load curves.Flow, common bool, r *optimize.
 // so total power follows the cube law exactly (affinity laws, every pump
 // handbook [P]; docs/sources.md §3), and so does the best count.
 func TestCubeLawZeroControlHead(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	p := suitePlantNamed(t, "constant-chain-zero-control")
 	for _, common := range []bool{false, true} {
 		s := optimize.New(p, optimize.Options{CommonSpeed: common})
@@ -602,6 +604,7 @@ func TestCubeLawZeroControlHead(t *testing.T) {
 // must coincide. The premise (equal split optimal near the switch) is
 // checked against the brute-force reference first.
 func TestSwitchAtEqualPower(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	found := 0
 	for _, name := range []string{"identical-3", "two-pole", "branch-losses", "steep-curves", "wide-runout", "flat-curves"} {
 		p := suitePlantNamed(t, name)
