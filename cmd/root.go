@@ -66,6 +66,7 @@ func Main(args []string, in io.Reader, out, errw io.Writer) int {
 
 // NewRootCmd builds the command tree.
 func NewRootCmd(streams *IO) *cobra.Command {
+	var wide bool
 	root := &cobra.Command{
 		Use:   "wattstage",
 		Short: "Lowest-power staging, setpoints and retrofit savings for parallel pump groups",
@@ -84,6 +85,12 @@ licensed engineer approve any change to a sequence or a retrofit.`,
 		Version: version.String(),
 	}
 	root.SetVersionTemplate("{{.Version}}\n")
+	root.PersistentFlags().BoolVar(&wide, "wide", false, "tables with one-line headers, as wide as they need (default: headers wrapped to fit 120 columns)")
+	root.PersistentPreRun = func(*cobra.Command, []string) {
+		if wide {
+			streams.Out = wideWriter{Writer: streams.Out, wide: true}
+		}
+	}
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 	root.AddCommand(
 		NewCmdInit(streams, nil),

@@ -100,9 +100,7 @@ func setpointsRun(opts *SetpointsOptions) error {
 	p := in.Plant
 	fmt.Fprintf(out, "Plant: %s\n", p.Name)
 	heading(out, "Staging setpoints (adjustable starting values)")
-	if err := sp.WriteTable(out); err != nil {
-		return err
-	}
+	writeSetpointTables(out, sp)
 	if len(sp.Defaults) > 0 {
 		fmt.Fprintln(out)
 		for _, d := range sp.Defaults {

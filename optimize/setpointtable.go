@@ -14,27 +14,45 @@ import (
 // its stage-up and stage-down values in flow and speed terms, the delays
 // and the limit that sets each value. Units are in every header.
 func (sp *Setpoints) WriteTable(w io.Writer) error {
+	stages, changes := sp.Tables()
+	tw := tabwriter.NewWriter(w, 2, 8, 2, ' ', tabwriter.AlignRight)
+	for i, rows := range [][][]string{stages, changes} {
+		if i > 0 {
+			fmt.Fprintln(tw)
+		}
+		for _, r := range rows {
+			fmt.Fprintln(tw, strings.Join(r, "\t")+"\t")
+		}
+	}
+	return tw.Flush()
+}
+
+// Tables returns the cells of the staging table, header row first: the
+// stages, and the changes with their stage-up and stage-down values, so
+// that a report can lay them out its own way.
+func (sp *Setpoints) Tables() (stages, changes [][]string) {
 	u := sp.Plant.Units
 	fu := u.FlowUnit()
-	tw := tabwriter.NewWriter(w, 2, 8, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintf(tw, "stage\trunning units\tfrom (%s)\tto (%s)\tspeed (%% rated)\tlimit at low end\t\n", fu, fu)
+	stages = append(stages, []string{"stage", "running units", "from (" + fu + ")", "to (" + fu + ")", "speed (% rated)", "limit at low end"})
 	for _, st := range sp.Stages {
-		fmt.Fprintf(tw, "%d\t%s\t%.1f\t%.1f\t%s\t%s\t\n", st.Number, DescribeCounts(sp.Plant, st.Counts),
-			u.FlowOut(st.Low), u.FlowOut(st.High), speedRange(st.LowSpeed, st.HighSpeed), orDash(string(st.LowLimit)))
+		stages = append(stages, []string{fmt.Sprint(st.Number), DescribeCounts(sp.Plant, st.Counts),
+			fmt.Sprintf("%.1f", u.FlowOut(st.Low)), fmt.Sprintf("%.1f", u.FlowOut(st.High)), speedRange(st.LowSpeed, st.HighSpeed), orDash(string(st.LowLimit))})
 	}
-	fmt.Fprintln(tw)
-	fmt.Fprintf(tw, "change\tstart / stop\tflow (%s)\tper unit (%s)\tdesign (%%)\tspeed before (%%)\tspeed after (%%)\tdelay (min)\tset by\t\n", fu, fu)
+	changes = append(changes, []string{"change", "start / stop", "flow (" + fu + ")", "per unit (" + fu + ")", "design (%)",
+		"speed before (%)", "speed after (%)", "delay (min)", "set by"})
 	for _, t := range sp.Transitions {
-		fmt.Fprintf(tw, "%d → %d up\t%s\t%.1f\t%.1f\t%.1f\t%s\t%s\t%.0f\t%s\t\n", t.From, t.To, StartStop(sp.Plant, t.Start, t.Stop),
-			u.FlowOut(t.Up.Flow), u.FlowOut(t.Up.PerUnit), 100*t.Up.Design, pct(t.Up.Speed), pct(t.Up.After), t.Up.Delay.Minutes(), t.Up.Limit)
+		changes = append(changes, []string{fmt.Sprintf("%d → %d up", t.From, t.To), StartStop(sp.Plant, t.Start, t.Stop),
+			fmt.Sprintf("%.1f", u.FlowOut(t.Up.Flow)), fmt.Sprintf("%.1f", u.FlowOut(t.Up.PerUnit)), fmt.Sprintf("%.1f", 100*t.Up.Design),
+			pct(t.Up.Speed), pct(t.Up.After), fmt.Sprintf("%.0f", t.Up.Delay.Minutes()), string(t.Up.Limit)})
 		sl := string(t.Down.Limit)
 		if t.Down.SpeedLimit != t.Down.Limit {
 			sl += "; speed: " + string(t.Down.SpeedLimit)
 		}
-		fmt.Fprintf(tw, "%d → %d down\t%s\t%.1f\t%.1f\t%.1f\t%s\t%s\t%.0f\t%s\t\n", t.To, t.From, StartStop(sp.Plant, t.Stop, t.Start),
-			u.FlowOut(t.Down.Flow), u.FlowOut(t.Down.PerUnit), 100*t.Down.Design, pct(t.Down.Speed), pct(t.Down.SpeedAfter), t.Down.Delay.Minutes(), sl)
+		changes = append(changes, []string{fmt.Sprintf("%d → %d down", t.To, t.From), StartStop(sp.Plant, t.Stop, t.Start),
+			fmt.Sprintf("%.1f", u.FlowOut(t.Down.Flow)), fmt.Sprintf("%.1f", u.FlowOut(t.Down.PerUnit)), fmt.Sprintf("%.1f", 100*t.Down.Design),
+			pct(t.Down.Speed), pct(t.Down.SpeedAfter), fmt.Sprintf("%.0f", t.Down.Delay.Minutes()), sl})
 	}
-	return tw.Flush()
+	return stages, changes
 }
 
 func pct(v float64) string {
