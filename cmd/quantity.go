@@ -109,7 +109,7 @@ func flowRange(flag, s string, u curves.UnitSystem, base curves.Flow, lo, hi flo
 		return 0, err
 	}
 	q := f.SI(u, base)
-	if float64(q) < lo*float64(base)*(1-1e-12) || float64(q) > hi*float64(base)*(1+1e-12) {
+	if !(q > 0) || float64(q) < lo*float64(base)*(1-1e-12) || float64(q) > hi*float64(base)*(1+1e-12) {
 		from := "from " + u.FormatFlow(curves.Flow(lo*float64(base))) + " (" + pctText(lo) + ")"
 		if lo == 0 {
 			from = "above 0"
