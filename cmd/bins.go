@@ -2,26 +2,28 @@ package cmd
 
 import (
 	"fmt"
-	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
 
 	"wattstage/curves"
+	"wattstage/plant"
 	"wattstage/profile"
 )
 
 // BinsOptions are the inputs of `wattstage bins`.
 type BinsOptions struct {
-	IO         *IO
-	TrendPath  string
-	PlantPath  string // optional: take the column mapping and units from this plant file
-	FlowColumn string
-	TimeColumn string
-	FlowUnit   string
-	TimeZone   string
-	Width      string // bin width in the trend's flow unit
-	JSON       bool
+	IO          *IO
+	TrendPath   string
+	PlantPath   string // optional: take the column mapping and units from this plant file
+	FlowColumn  string
+	TimeColumn  string
+	PowerColumn string // header of the measured pump power in kW; optional
+	FlowUnit    string
+	TimeZone    string
+	Width       string // bin width in the trend's flow unit
+	JSON        bool
+	AsProfile   bool // write the bins as a plant file's profile: block
 }
 
 // NewCmdBins builds `wattstage bins`.
@@ -40,6 +42,7 @@ header containing "flow" is the flow, with its unit read from the header
 plant file with --plant.`,
 		Example: `  wattstage bins examples/chilled-water-trend.csv
   wattstage bins examples/chilled-water-trend.csv --width 200
+  wattstage bins examples/chilled-water-trend.csv --as-profile --time-zone America/Chicago
   wattstage bins log.csv --flow-column "CHW Flow" --flow-unit L/s --time-zone Europe/Berlin`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
@@ -54,31 +57,38 @@ plant file with --plant.`,
 	f.StringVar(&opts.PlantPath, "plant", "", "take the column mapping and units from this plant file's trend")
 	f.StringVar(&opts.FlowColumn, "flow-column", "", "header of the flow column")
 	f.StringVar(&opts.TimeColumn, "time-column", "", "header of the timestamp column")
+	f.StringVar(&opts.PowerColumn, "power-column", "", "header of the measured total pump power in kW (optional: adds mean power per bin)")
 	f.StringVar(&opts.FlowUnit, "flow-unit", "", "flow unit: gpm, m3/h or L/s (default: read from the header)")
 	f.StringVar(&opts.TimeZone, "time-zone", "", "IANA zone of stamps without an offset (default: UTC wall clock)")
-	f.StringVar(&opts.Width, "width", "", "bin width in the flow unit (default: about 20 bins over the range)")
+	f.StringVar(&opts.Width, "width", "", "bin width: a flow in the trend's unit (200), with a unit (200gpm, 12L/s) or, with --plant, % of design flow (5%); at most 1000 bins and at least one up to the highest flow (default: about 20 bins)")
 	f.BoolVar(&opts.JSON, "json", false, "write the bins as JSON")
+	f.BoolVar(&opts.AsProfile, "as-profile", false, "write the bins as a profile: block to paste into a plant file (in the --plant file's units, else the trend's)")
 	return c
 }
 
 func binsRun(opts *BinsOptions) error {
 	var spec profile.TrendSpec
+	var design curves.Flow // the plant's design flow, for --width in %; 0 without --plant
+	var pl *plant.Plant    // the --plant file; nil without
 	if opts.PlantPath != "" {
 		p, err := loadPlant(opts.PlantPath)
 		if err != nil {
 			return err
 		}
-		if p.Profile.Trend == nil {
+		switch {
+		case p.Profile.Trend != nil:
+			spec = *p.Profile.Trend
+		case !opts.AsProfile:
 			return badInputf("--plant %s: the plant file has no trend profile", opts.PlantPath)
 		}
-		spec = *p.Profile.Trend
+		design, pl = p.DesignFlow, p
 	}
 	spec.Path = opts.TrendPath
 	for _, kv := range []struct {
 		dst *string
 		v   string
 	}{
-		{&spec.FlowColumn, opts.FlowColumn}, {&spec.TimeColumn, opts.TimeColumn},
+		{&spec.FlowColumn, opts.FlowColumn}, {&spec.TimeColumn, opts.TimeColumn}, {&spec.PowerColumn, opts.PowerColumn},
 		{&spec.FlowUnit, opts.FlowUnit}, {&spec.TimeZone, opts.TimeZone},
 	} {
 		if kv.v != "" {
@@ -90,19 +100,18 @@ func binsRun(opts *BinsOptions) error {
 		return badInput(err)
 	}
 	unit, per := flowUnitOf(tr.Spec.FlowUnit)
-	width := curves.Flow(0)
+	width := niceWidth(tr, per)
 	if opts.Width != "" {
-		v, err := strconv.ParseFloat(opts.Width, 64)
-		if err != nil || v <= 0 {
-			return badInputf("--width %q: not a positive flow in %s", opts.Width, unit)
+		if width, err = binWidthArg(opts.Width, tr, unit, per, design); err != nil {
+			return err
 		}
-		width = curves.Flow(v * per)
-	} else {
-		width = niceWidth(tr, per)
 	}
 	b, err := tr.Bin(width)
 	if err != nil {
 		return badInput(err)
+	}
+	if opts.AsProfile {
+		return writeProfileBlock(opts.IO.Out, tr, b, pl)
 	}
 	if opts.JSON {
 		return writeJSON(opts.IO.Out, map[string]any{"trend": tr.Name, "flow_unit": unit, "interval": tr.Interval.String(),
@@ -139,6 +148,41 @@ func binsRun(opts *BinsOptions) error {
 	t.flush()
 	fmt.Fprintf(out, "Binning error estimate: %.2f %% of annual energy on a cube law (evaluating each bin at its centre)\n", 100*b.CubeError)
 	return nil
+}
+
+// maxBinsOfWidth bounds --width from below: at most this many bins up to
+// the trend's highest flow.
+const maxBinsOfWidth = 1000
+
+// binWidthArg reads --width: a flow in the trend's unit, a flow with a unit
+// suffix, or (with --plant) a percentage of design flow; from the highest
+// flow / maxBinsOfWidth to the highest flow.
+func binWidthArg(s string, tr *profile.Trend, unit string, per float64, design curves.Flow) (curves.Flow, error) {
+	f, err := parseFlowArg("width", s)
+	if err != nil {
+		return 0, err
+	}
+	var w curves.Flow
+	switch f.Unit {
+	case "":
+		w = curves.Flow(f.Value * per)
+	case "%":
+		if design == 0 {
+			return 0, usageError{fmt.Errorf("--width %s: a percentage needs the design flow: give --plant, or a flow in %s", s, unit)}
+		}
+		w = f.SI(curves.SI, design)
+	default:
+		w = f.SI(curves.SI, 0)
+	}
+	hi := 0.0
+	for _, p := range tr.Points {
+		hi = max(hi, float64(p.Flow))
+	}
+	if hi > 0 && (float64(w) < hi/maxBinsOfWidth || float64(w) > hi) {
+		return 0, usageError{fmt.Errorf("--width %s: give a width from %.4g to %.4g %s (at most %d bins, at least one, up to the trend's highest flow %.4g %s)",
+			s, hi/maxBinsOfWidth/per, hi/per, unit, maxBinsOfWidth, hi/per, unit)}
+	}
+	return w, nil
 }
 
 // flowUnitOf returns the display name and SI factor of a trend flow unit.

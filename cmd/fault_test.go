@@ -108,6 +108,9 @@ func TestExistingWorkbookNeedsForce(t *testing.T) {
 // is unchanged. The inputs are given .xlsx names so that the refusal is the
 // same-file check, not the extension check.
 func TestOutputIsAnInput(t *testing.T) {
+	if testing.Short() {
+		t.Skip("slow (runs plan on every example): run without -short")
+	}
 	dir := t.TempDir()
 	copyExamples(t, dir)
 	plantX := filepath.Join(dir, "plant.xlsx")
@@ -171,6 +174,9 @@ func TestOutputIsAnInput(t *testing.T) {
 // copies of the examples and checks that the plant files and the trend log
 // are byte-for-byte what they were, with the same mode and time stamp.
 func TestInputsNeverModified(t *testing.T) {
+	if testing.Short() {
+		t.Skip("slow (runs every command on every example): run without -short")
+	}
 	dir := t.TempDir()
 	copyExamples(t, dir)
 	inputs := listDir(t, dir)

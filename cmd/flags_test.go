@@ -95,12 +95,12 @@ func TestBinsAndCheckFlags(t *testing.T) {
 	var got *cmd.BinsOptions
 	c := cmd.NewCmdBins(&cmd.IO{}, func(o *cmd.BinsOptions) error { got = o; return nil })
 	if err := execute(t, c, "log.csv", "--plant", "p.yaml", "--flow-column", "CHW Flow", "--time-column", "Time",
-		"--flow-unit", "L/s", "--time-zone", "Europe/Berlin", "--width", "20", "--json"); err != nil {
+		"--flow-unit", "L/s", "--power-column", "kW", "--time-zone", "Europe/Berlin", "--width", "20", "--json"); err != nil {
 		t.Fatal(err)
 	}
 	got.IO = nil
 	want := cmd.BinsOptions{TrendPath: "log.csv", PlantPath: "p.yaml", FlowColumn: "CHW Flow", TimeColumn: "Time",
-		FlowUnit: "L/s", TimeZone: "Europe/Berlin", Width: "20", JSON: true}
+		FlowUnit: "L/s", PowerColumn: "kW", TimeZone: "Europe/Berlin", Width: "20", JSON: true}
 	if !reflect.DeepEqual(*got, want) {
 		t.Errorf("options %+v, want %+v", *got, want)
 	}

@@ -48,6 +48,9 @@ With -o the same goes into an Excel workbook to hand over.`,
 		RunE: func(c *cobra.Command, args []string) error {
 			opts.PlantPath = args[0]
 			opts.OutputSet = c.Flags().Changed("output")
+			if _, err := parseFlowArg("bin-width", opts.BinWidth); opts.BinWidth != "" && err != nil {
+				return err
+			}
 			if runF != nil {
 				return runF(opts)
 			}
@@ -60,9 +63,16 @@ With -o the same goes into an Excel workbook to hand over.`,
 	f.BoolVar(&opts.JSON, "json", false, "write the result as JSON (docs/plan-json.md)")
 	f.BoolVar(&opts.Detail, "detail", false, "with --json: add every step of every strategy, as JSON Lines after the document")
 	f.StringVar(&opts.Baseline, "baseline", "", "strategy to count savings against: current, throttled, bypass, common, partial, derived (default: current when the plant file gives its sequence, else throttled)")
-	f.StringVar(&opts.BinWidth, "bin-width", "", "with a trend: bin the flows by this width (plant flow unit) instead of solving every interval")
+	f.StringVar(&opts.BinWidth, "bin-width", "", "with a trend: bin the flows by this width instead of solving every interval: a flow (150, 150gpm, 10L/s) or % of design flow (5%), from 0.1 % to 50 % of design flow")
 	return c
 }
+
+// Range of --bin-width, as fractions of design flow: narrower bins than
+// 0.1 % are finer than any flow meter; wider than 50 % leave two bins.
+const (
+	minBinWidth = 0.001
+	maxBinWidth = 0.5
+)
 
 // planStudy loads the plant, reads its profile and runs the study.
 func planStudy(path, binWidth, baseline string, detail bool, progress func(string, int, int)) (*study.Result, error) {
@@ -72,8 +82,8 @@ func planStudy(path, binWidth, baseline string, detail bool, progress func(strin
 	}
 	var w curves.Flow
 	if binWidth != "" {
-		if w, err = parseFlow(binWidth, p); err != nil || !(w > 0) {
-			return nil, badInputf("--bin-width %q: not a positive flow in %s", binWidth, p.Units.FlowUnit())
+		if w, err = flowRange("bin-width", binWidth, p.Units, p.DesignFlow, minBinWidth, maxBinWidth, "the design flow"); err != nil {
+			return nil, err
 		}
 	}
 	in, err := study.Prepare(p, w)
@@ -294,15 +304,6 @@ func writeProfileLine(out io.Writer, r *study.Input) {
 		fmt.Fprintf(out, "A year: the period's energy, cost and emissions × %.4f (%s h a year ÷ %s h covered); demand charges from the mean of the covered months\n",
 			pd.Factor, study.Grouped(pd.AnnualHours), study.Grouped(pd.CoveredHours))
 	}
-}
-
-func fmtFlow(u curves.UnitSystem, q curves.Flow) string { return u.FormatFlow(q) }
-
-func nanOr(v float64) any {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return nil
-	}
-	return v
 }
 
 // plural writes n with the singular or plural noun.

@@ -5,7 +5,6 @@ import (
 	"io"
 	"math"
 	"slices"
-	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -39,6 +38,7 @@ possible number of running units shows why that count wins.
 
 With --units N the answer is instead N running units at one common speed.`,
 		Example: `  wattstage point examples/chilled-water.yaml --flow 1800
+  wattstage point examples/chilled-water.yaml --flow 114L/s
   wattstage point examples/chilled-water.yaml --flow 60% --units 3
   wattstage point examples/condenser-water.yaml --flow 450 --json`,
 		Args: cobra.ExactArgs(1),
@@ -47,42 +47,35 @@ With --units N the answer is instead N running units at one common speed.`,
 			if opts.Flow == "" {
 				return usageError{fmt.Errorf("--flow is required")}
 			}
+			if _, err := parseFlowArg("flow", opts.Flow); err != nil {
+				return err
+			}
+			if c.Flags().Changed("units") && opts.Units < 1 {
+				return usageError{fmt.Errorf("--units %d: give the number of running units, 1 or more (leave the flag out to optimise)", opts.Units)}
+			}
 			if runF != nil {
 				return runF(opts)
 			}
 			return pointRun(opts)
 		},
 	}
-	c.Flags().StringVar(&opts.Flow, "flow", "", "flow through the load, in the plant file's flow unit, or a percentage of design flow such as 60%")
-	c.Flags().IntVar(&opts.Units, "units", 0, "run exactly this many units at one common speed instead of optimising")
+	c.Flags().StringVar(&opts.Flow, "flow", "", "flow through the load: in the plant's flow unit (1800), with a unit (1800gpm, 410m3/h, 114L/s) or in % of design flow (60%); above 0 and at most 500 % of design flow")
+	c.Flags().IntVar(&opts.Units, "units", 0, "run exactly this many units (1 to the units installed) at one common speed instead of optimising")
 	c.Flags().BoolVar(&opts.CommonSpeed, "common-speed", false, "give every running variable-speed unit the same speed")
 	c.Flags().BoolVar(&opts.JSON, "json", false, "write the result as JSON")
 	return c
 }
 
-// parseFlow reads "1800" in the plant's flow unit or "60%" of design flow.
-func parseFlow(s string, p *plant.Plant) (curves.Flow, error) {
-	s = strings.TrimSpace(s)
-	if strings.HasSuffix(s, "%") {
-		v, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimSuffix(s, "%")), 64)
-		if err != nil || v < 0 {
-			return 0, badInputf("--flow %q: not a percentage of design flow", s)
-		}
-		return curves.Flow(v / 100 * float64(p.DesignFlow)), nil
-	}
-	v, err := strconv.ParseFloat(s, 64)
-	if err != nil || v < 0 {
-		return 0, badInputf("--flow %q: not a flow in %s (or a percentage such as 60%%)", s, p.Units.FlowUnit())
-	}
-	return p.Units.FlowIn(v), nil
-}
+// maxPointFlow is the largest --flow, as a fraction of design flow: well
+// past any plant's capacity, so a larger value is a typing mistake.
+const maxPointFlow = 5
 
 func pointRun(opts *PointOptions) error {
 	p, err := loadPlant(opts.PlantPath)
 	if err != nil {
 		return err
 	}
-	q, err := parseFlow(opts.Flow, p)
+	q, err := flowRange("flow", opts.Flow, p.Units, p.DesignFlow, 0, maxPointFlow, "the design flow")
 	if err != nil {
 		return err
 	}
@@ -91,7 +84,7 @@ func pointRun(opts *PointOptions) error {
 		installed += m.Count
 	}
 	if opts.Units < 0 || opts.Units > installed {
-		return badInputf("--units %d: the plant has %d units installed", opts.Units, installed)
+		return badInputf("--units %d: give 1 to %d, the units the plant has installed", opts.Units, installed)
 	}
 	var best, common optimize.Result
 	var byCount []optimize.Result

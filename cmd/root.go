@@ -8,6 +8,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"wattstage/internal/version"
 	"wattstage/plant"
 	"wattstage/profile"
 )
@@ -86,6 +87,7 @@ func exitCode(errw io.Writer, err error) int {
 
 // NewRootCmd builds the command tree.
 func NewRootCmd(streams *IO) *cobra.Command {
+	var wide bool
 	root := &cobra.Command{
 		Use:   "wattstage",
 		Short: "Lowest-power staging, setpoints and retrofit savings for parallel pump groups",
@@ -100,9 +102,19 @@ motor cooling at low speed and resonance with the manufacturers, and have a
 licensed engineer approve any change to a sequence or a retrofit.`,
 		SilenceUsage:  true,
 		SilenceErrors: true,
+		// --version: module version, commit and date from the build information.
+		Version: version.String(),
+	}
+	root.SetVersionTemplate("{{.Version}}\n")
+	root.PersistentFlags().BoolVar(&wide, "wide", false, "tables with one-line headers, as wide as they need (default: headers wrapped to fit 120 columns)")
+	root.PersistentPreRun = func(*cobra.Command, []string) {
+		if wide {
+			streams.Out = wideWriter{Writer: streams.Out, wide: true}
+		}
 	}
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 	root.AddCommand(
+		NewCmdInit(streams, nil),
 		NewCmdCheck(streams, nil),
 		NewCmdPoint(streams, nil),
 		NewCmdPlan(streams, nil),

@@ -58,8 +58,15 @@ with the unconstrained optimum and with the plant's current thresholds.`,
 			if opts.Format != "text" && opts.Format != "csv" && opts.Format != "json" {
 				return usageError{fmt.Errorf("--format %q: give text, csv or json", opts.Format)}
 			}
-			if opts.Deadband < 0 || opts.Deadband >= 0.5 {
-				return usageError{fmt.Errorf("--deadband %g: give a fraction from 0 to below 0.5 (0 = default)", opts.Deadband)}
+			for _, d := range []struct {
+				flag string
+				v    time.Duration
+			}{{"up-delay", opts.UpDelay}, {"down-delay", opts.DownDelay}} {
+				if c.Flags().Changed(d.flag) {
+					if err := checkDuration(d.flag, d.v, time.Second, time.Hour); err != nil {
+						return err
+					}
+				}
 			}
 			if runF != nil {
 				return runF(opts)
@@ -68,9 +75,9 @@ with the unconstrained optimum and with the plant's current thresholds.`,
 		},
 	}
 	f := c.Flags()
-	f.Float64Var(&opts.Deadband, "deadband", 0, "stage-down flow below stage-up, as a fraction of the stage-up flow (default 0.10)")
-	f.DurationVar(&opts.UpDelay, "up-delay", 0, "how long a stage-up condition must hold (default 5m)")
-	f.DurationVar(&opts.DownDelay, "down-delay", 0, "how long a stage-down condition must hold (default 10m)")
+	f.Var(&fractionValue{dst: &opts.Deadband, lo: 0.01, hi: 0.45}, "deadband", "stage-down flow below stage-up, as a fraction (0.15) or percentage (15%) of the stage-up flow, 1 % to 45 % (default 10 %)")
+	f.DurationVar(&opts.UpDelay, "up-delay", 0, "how long a stage-up condition must hold, 1s to 1h (default 5m)")
+	f.DurationVar(&opts.DownDelay, "down-delay", 0, "how long a stage-down condition must hold, 1s to 1h (default 10m)")
 	f.StringVar(&opts.Signal, "signal", "", "the one signal the sequence stages on: flow, speed or flow-and-speed (default: the most robust for the plant, with the reason)")
 	f.StringVar(&opts.Format, "format", "text", "text; csv (the staging table, stages, DP schedule and points list, one table per first-column name); or json")
 	f.BoolVar(&opts.JSON, "json", false, "the same as --format json")
@@ -108,9 +115,7 @@ func setpointsRun(opts *SetpointsOptions) error {
 	fmt.Fprintf(out, "Plant: %s\n", p.Name)
 	fmt.Fprintf(out, "Staging signal: %s (%s)\n", sp.Signal, sp.SignalWhy)
 	heading(out, "Staging setpoints (adjustable starting values)")
-	if err := sp.WriteTable(out); err != nil {
-		return err
-	}
+	writeSetpointTables(out, sp)
 	fmt.Fprintf(out, "Flows are rounded to %s %s: the stages draw within %.1f %% of each other across each near-equal band.\n",
 		num(sp.Resolution(), 0), p.Units.FlowUnit(), 100*optimize.NearEqualTolerance)
 	if len(sp.Defaults) > 0 {

@@ -7,7 +7,7 @@ import (
 	"testing"
 )
 
-// TestDOEDriveWorkedCase: DOMAIN §5 worked case of the DOE pump test
+// TestDOEDriveWorkedCase: the worked case (docs/sources.md §5) of the DOE pump test
 // procedure (10 CFR 431 subpart Y, appendix A) motor + continuous-control
 // loss factor [C, re-computed D]: 75 hp motor at the 95 % default.
 func TestDOEDriveWorkedCase(t *testing.T) {
@@ -66,7 +66,7 @@ func TestDOEDriveWorkedCase(t *testing.T) {
 	}
 }
 
-// TestDOEDriveCoefficients: the size bands of DOMAIN §5 [C], including
+// TestDOEDriveCoefficients: the size bands of docs/sources.md §5 [C], including
 // their edges (≤ 5, > 5 to ≤ 20, > 20 to ≤ 50, > 50 hp).
 func TestDOEDriveCoefficients(t *testing.T) {
 	cases := []struct {
@@ -243,7 +243,7 @@ func TestFixedSpeed(t *testing.T) {
 	}
 	for _, r := range []float64{0.3, 0.8, 1.1} {
 		ch := d.Input(m, Power(r)*m.Rated, 1)
-		// [V] DOMAIN §5: a fixed-speed unit has no drive loss.
+		// [V] docs/sources.md §5: a fixed-speed unit has no drive loss.
 		if ch.DriveEff != 1 {
 			t.Errorf("R=%g: drive efficiency %g, want 1", r, ch.DriveEff)
 		}

@@ -6,7 +6,7 @@ import (
 	"wattstage/curves"
 )
 
-// Water at 20 °C by Kell (1975); DOMAIN §2 gives 998.204 kg/m³ [D].
+// Water at 20 °C by Kell (1975); docs/sources.md §2 gives 998.204 kg/m³ [D].
 func ExampleWaterDensity() {
 	rho, err := curves.WaterDensity(20)
 	if err != nil {
@@ -22,7 +22,7 @@ func ExampleWaterDensity() {
 }
 
 // An 80 % efficient pump at half speed: 78.56 % by Sârbu & Borza (1998),
-// DOMAIN §3 check [D].
+// docs/sources.md §3 check [D].
 func ExampleSarbuBorza() {
 	fmt.Printf("%.4f\n", curves.SarbuBorza(0.80, 0.50))
 	// Output:

@@ -13,17 +13,17 @@ func TestWaterDensityKell(t *testing.T) {
 		want float64 // kg/m³
 		tol  float64 // kg/m³
 	}{
-		// [D] DOMAIN §2, Kell (1975) evaluated to three decimals.
+		// [D] docs/sources.md §2, Kell (1975) evaluated to three decimals.
 		{"4 °C", 4, 999.972, 5e-4},
-		// DOMAIN §2 lists 999.902 for 7 °C, but Kell's formula gives
-		// 999.901489 there (re-computed [D] in 40-digit decimal arithmetic),
-		// which rounds to 999.901: the DOMAIN figure is a rounding slip, so
-		// the check uses the re-computed value.
+		// Kell's formula gives 999.901489 at 7 °C (re-computed [D] in
+		// 40-digit decimal arithmetic), which rounds to 999.901; a copy
+		// showing 999.902 rounds the wrong way (docs/sources.md §2), so the
+		// check uses the re-computed value.
 		{"7 °C", 7, 999.901489, 5e-6},
 		{"20 °C", 20, 998.204, 5e-4},
 		{"30 °C", 30, 995.647, 5e-4},
 		// Also guards against the miscopied denominator 16.897850e-3, which is
-		// ~0.5 kg/m³ off here (DOMAIN §2).
+		// ~0.5 kg/m³ off here (docs/sources.md §2).
 		{"60 °C", 60, 983.199, 5e-4},
 		// [V] IAPWS-95 at 20 °C, 101.325 kPa: 998.2071505 kg/m³. Kell and
 		// IAPWS-95 agree within 0.003 kg/m³ here [D]; 0.01 allows for that.

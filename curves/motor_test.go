@@ -15,7 +15,7 @@ func TestMotorDOEPartLoad(t *testing.T) {
 		load float64 // R = shaft / rated
 		want float64 // motor efficiency
 	}{
-		// [D] DOMAIN §4 derived check: 10 hp at 91.7 % → 82.06 / 89.05 /
+		// [D] docs/sources.md §4 derived check: 10 hp at 91.7 % → 82.06 / 89.05 /
 		// 90.94 / 91.70 % at 25/50/75/100 % load.
 		{0.25, 0.8206},
 		{0.50, 0.8905},
@@ -48,7 +48,7 @@ func TestMotorDOEPartLoad(t *testing.T) {
 // factor does not: y(R)/R falls for every R > 0, since
 // d(y/R)/dR ∝ −0.9016 R³ + 1.2399 R² − 0.641 < 0 (its largest value, at
 // R ≈ 0.917, is −0.294) [D], so the default efficiency rises monotonically
-// up to full load and beyond. Both are checked here; DOMAIN's own derived
+// up to full load and beyond. Both are checked here; the derived check of docs/sources.md §4
 // check (90.94 % at 75 %, 91.70 % at 100 %) agrees.
 func TestMotorShape(t *testing.T) {
 	for _, hp := range []float64{5, 25, 100, 200} {
@@ -69,7 +69,7 @@ func TestMotorShape(t *testing.T) {
 }
 
 // TestPremiumEfficiency: 10 CFR 431.25 Table 5 (= NEMA Premium, MG 1 Table
-// 12-12), enclosed motors [V], values read in the regulation (DOMAIN §4).
+// 12-12), enclosed motors [V], values read in the regulation (docs/sources.md §4).
 func TestPremiumEfficiency(t *testing.T) {
 	cases := []struct {
 		hp    float64

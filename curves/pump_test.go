@@ -52,7 +52,7 @@ func TestSarbuBorza(t *testing.T) {
 	cases := []struct {
 		eta, s, want float64
 	}{
-		// [D] DOMAIN §3 checks of η₂ = 1 − (1 − η₁)(n₁/n₂)^0.1 (Sârbu & Borza
+		// [D] docs/sources.md §3 checks of η₂ = 1 − (1 − η₁)(n₁/n₂)^0.1 (Sârbu & Borza
 		// 1998 [M for the citation]; formula as in US EPA EPANET 2 [V]).
 		{0.80, 0.50, 0.7856},
 		{0.80, 0.70, 0.7927},
@@ -62,7 +62,7 @@ func TestSarbuBorza(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(fmt.Sprintf("%.2f at %.0f%%", c.eta, 100*c.s), func(t *testing.T) {
-			// DOMAIN gives four decimals: ±5e-5.
+			// docs/sources.md §3 gives four decimals: ±5e-5.
 			if got := SarbuBorza(c.eta, c.s); math.Abs(got-c.want) > 5e-5 {
 				t.Errorf("SarbuBorza(%g, %g) = %.6f, want %.4f", c.eta, c.s, got, c.want)
 			}
@@ -103,7 +103,7 @@ func TestPumpEffSpeedCorrection(t *testing.T) {
 			}
 		})
 	}
-	// [D] DOMAIN §3 check through the pump: BEP 80 % at 50 % speed → 78.56 %.
+	// [D] docs/sources.md §3 check through the pump: BEP 80 % at 50 % speed → 78.56 %.
 	if got := on.Eff(Flow(0.5*testBEPFlow), 0.5); math.Abs(got-0.7856) > 5e-5 {
 		t.Errorf("BEP efficiency at half speed %.5f, want 0.7856", got)
 	}
@@ -111,7 +111,7 @@ func TestPumpEffSpeedCorrection(t *testing.T) {
 
 // TestPumpAffinityLaws checks H(sQ, s) = s² H(Q, 1), P(sQ, s) = s³ P(Q, 1)
 // and η(sQ, s) = η(Q, 1) [P, every pump handbook], and the head against
-// DOMAIN's explicit form H(Q, s) = a₀s² + a₁sQ + a₂Q² for a quadratic.
+// the explicit form (docs/sources.md §3) H(Q, s) = a₀s² + a₁sQ + a₂Q² for a quadratic.
 func TestPumpAffinityLaws(t *testing.T) {
 	const rho = 998.2
 	for _, hc := range []struct {

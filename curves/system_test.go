@@ -7,7 +7,7 @@ import (
 )
 
 // TestDPControlCurve: H(Q) = H_ctl + (H_design − H_ctl)(Q/Q_design)²
-// (DOMAIN §6) [D], with and without a linear setpoint reset.
+// (docs/sources.md §6) [D], with and without a linear setpoint reset.
 func TestDPControlCurve(t *testing.T) {
 	const qd, hd, hc = 0.12, 36.0, 12.0 // m³/s, m, m: test inputs
 	plain := DPControl{DesignFlow: qd, DesignHead: hd, ControlHead: hc}
@@ -80,9 +80,9 @@ func TestFixedCurve(t *testing.T) {
 // H = 0.8 (Q/Q₁₀₀)² H₁₀₀ + 0.2 H₁₀₀ [C] is a DP control curve with control
 // head 0.2 H₁₀₀ (and a fixed curve with static 0.2 H₁₀₀). At constant
 // efficiency the power fractions at 25/50/75 % flow are 0.0625, 0.2,
-// 0.4875 [D, DOMAIN §8]; times the DOE worked case's BEP shaft input
+// 0.4875 [D, docs/sources.md §8]; times the DOE worked case's BEP shaft input
 // 52.07233 hp they are its reference-curve shaft inputs 3.25452, 10.41447,
-// 25.38526 hp [C, DOMAIN §5].
+// 25.38526 hp [C, docs/sources.md §5].
 func TestDOEReferenceCurve(t *testing.T) {
 	const q100, h100, eta = 0.05, 40.0, 0.78 // test inputs; the fractions do not depend on them
 	systems := []System{

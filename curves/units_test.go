@@ -118,14 +118,14 @@ func TestUnitSystemIn(t *testing.T) {
 }
 
 // TestWaterHorsepowerConstant checks ρ g Q H against the handbook form
-// WHP = Q[gpm]·H[ft]·SG / K at the densities DOMAIN gives.
+// WHP = Q[gpm]·H[ft]·SG / K at the densities of docs/sources.md §1.
 func TestWaterHorsepowerConstant(t *testing.T) {
 	cases := []struct {
 		name    string
 		density float64 // kg/m³
 		k       float64 // gpm·ft/hp
 	}{
-		// [D] DOMAIN §1: 3954.3 at 1000 kg/m³, 3958.2 at 999.0, 3961.4 at 998.2.
+		// [D] docs/sources.md §1: 3954.3 at 1000 kg/m³, 3958.2 at 999.0, 3961.4 at 998.2.
 		{"1000 kg/m³", 1000, 3954.3},
 		{"999.0 kg/m³", 999.0, 3958.2},
 		{"998.2 kg/m³", 998.2, 3961.4},
@@ -155,9 +155,9 @@ func TestPressureToHead(t *testing.T) {
 		ftPsi   float64 // ft of fluid per psi
 		tol     float64 // absolute, ft/psi
 	}{
-		// [P], [D] DOMAIN §1: 2.311 ft/psi for water at 20 °C (998.2 kg/m³).
+		// [P], [D] docs/sources.md §1: 2.311 ft/psi for water at 20 °C (998.2 kg/m³).
 		{"water 20 °C", 998.2, 2.311, 5e-4},
-		// [P], [D] DOMAIN §1: 2.309 ft/psi at 60 °F (Kell: 999.01 kg/m³).
+		// [P], [D] docs/sources.md §1: 2.309 ft/psi at 60 °F (Kell: 999.01 kg/m³).
 		{"water 60 °F", 999.01, 2.309, 5e-4},
 		// [P] 2.31/SG: a glycol of SG 1.06 (USERS.md: ~2.18 ft/psi).
 		{"glycol SG 1.06", 1.06 * 999.0, 2.31 / 1.06, 2e-3},

@@ -306,7 +306,7 @@ func thousands(v float64) string {
 
 // checkAffinity checks a head series named "NN % speed" against the fitted
 // rated-speed polynomial H₀ by the affinity laws, H(Q, s) = s²·H₀(Q/s)
-// (DOMAIN §3, every pump handbook [P]).
+// (docs/sources.md §3, every pump handbook [P]).
 func checkAffinity(t *testing.T, chart string, s workbook.Series, fit []float64) {
 	t.Helper()
 	pct, ok := strings.CutSuffix(s.Name, " % speed")
@@ -354,11 +354,11 @@ func TestEconomicsInputs(t *testing.T) {
 // density, a runout in L/s shows in m³/h.
 func TestInputsAsGiven(t *testing.T) {
 	const (
-		psi = 6894.757293 // Pa, NIST SP 811 [V] (DOMAIN §1)
+		psi = 6894.757293 // Pa, NIST SP 811 [V] (docs/sources.md §1)
 		ft  = 0.3048      // m, exact, NIST SP 811 [V]
 		g   = 9.80665     // m/s², standard gravity [V]
 	)
-	// kell is water density in kg/m³ at t °C, Kell (1975) (DOMAIN §2 [C]).
+	// kell is water density in kg/m³ at t °C, Kell (1975) (docs/sources.md §2 [C]).
 	kell := func(t float64) float64 {
 		return (999.83952 + 16.945176*t - 7.9870401e-3*t*t - 46.170461e-6*t*t*t + 105.56302e-9*t*t*t*t - 280.54253e-12*t*t*t*t*t) /
 			(1 + 16.879850e-3*t)

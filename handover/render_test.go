@@ -21,6 +21,9 @@ import (
 //
 // Set WORKBOOK_RENDER_DIR to keep the PDF and PNGs there.
 func TestRenderTrendExample(t *testing.T) {
+	if testing.Short() {
+		t.Skip("slow (a year of hourly trend, every strategy): run without -short")
+	}
 	ex := loadExample(t, "chilled-water-trend.yaml")
 	r := ex.report
 	file := filepath.Join(officecheck.RenderDir(t), "chilled-water-trend.xlsx")

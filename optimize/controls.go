@@ -62,18 +62,18 @@ func (sp *Setpoints) PointsList() []IOPoint {
 	p := sp.Plant
 	u := p.Units
 	out := []IOPoint{{Name: "Plant flow", Kind: "AI", Unit: u.FlowUnit(),
-		Description: "flow at the pumps, bypass flow included: the staging signal's flow"}}
+		Description: "flow at the pumps, bypass flow included"}}
 	if _, ok := p.System.(curves.DPControl); ok {
 		where := p.DPSensor
 		if where == "" {
-			where = "the remote sensor (location not given in the plant file)"
+			where = "the remote sensor (location not in the file)"
 		}
 		out = append(out, IOPoint{Name: "Loop differential pressure", Kind: "AI", Unit: u.PressureUnit(),
-			Description: "at " + where + ": the speed loop's process variable"})
+			Description: "at " + where})
 	}
 	if p.MinFlow > 0 {
 		out = append(out, IOPoint{Name: "Bypass valve", Kind: "AO", Unit: "%",
-			Description: fmt.Sprintf("opens to hold the plant minimum flow of %s", fmtFlowWords(u, p.MinFlow))})
+			Description: fmt.Sprintf("holds the plant minimum flow of %s", fmtFlowWords(u, p.MinFlow))})
 	}
 	for _, m := range p.Models {
 		for k := 0; k < m.Installed(); k++ {
@@ -87,14 +87,14 @@ func unitPoints(m plant.Model, k int) []IOPoint {
 	tag := m.Tag(k)
 	pts := []IOPoint{
 		{Name: tag + " start/stop", Kind: "DO", Description: "run command"},
-		{Name: tag + " run status", Kind: "DI", Description: "motor running (current switch or drive status)"},
-		{Name: tag + " proof of flow", Kind: "DI", Description: "flow or differential-pressure switch across the pump"},
+		{Name: tag + " run status", Kind: "DI", Description: "motor running"},
+		{Name: tag + " proof of flow", Kind: "DI", Description: "flow switch or DP switch"},
 	}
 	if m.Drive.Variable() {
 		pts = append(pts,
-			IOPoint{Name: tag + " speed command", Kind: "AO", Unit: "%", Description: "common speed signal, % of rated speed"},
+			IOPoint{Name: tag + " speed command", Kind: "AO", Unit: "%", Description: "common speed, % of rated"},
 			IOPoint{Name: tag + " speed feedback", Kind: "AI", Unit: "%", Description: "drive output speed"},
-			IOPoint{Name: tag + " drive fault", Kind: "DI", Description: "drive trip or fault"})
+			IOPoint{Name: tag + " drive fault", Kind: "DI", Description: "drive trip"})
 	}
 	return pts
 }

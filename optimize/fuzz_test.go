@@ -112,7 +112,7 @@ func (sh fzShape) build() (*curves.Pump, error) {
 func fzSlowRiseK(k float64) float64 { return 3 + (k-1)*1.25 }
 
 // fzDriveTable is a drive efficiency table in the shape of published VFD
-// part-load data (US DOE Motor Systems Tip Sheet #11, DOMAIN §5); plant
+// part-load data (US DOE Motor Systems Tip Sheet #11, docs/sources.md §5); plant
 // data here, not a check value.
 var fzDriveTable = curves.TableDrive{Table: []curves.LoadEff{
 	{Load: 0.016, Eff: 0.55}, {Load: 0.125, Eff: 0.89}, {Load: 0.25, Eff: 0.94}, {Load: 0.42, Eff: 0.95},

@@ -9,10 +9,10 @@ package optimize_test
 //
 // Physics (the same the solver follows, coded again here):
 //
-//	pumped flow       Q = max(load, plant minimum flow)      (bypass, DOMAIN §6)
-//	header head       H ≥ System.Required(load)              (a floor, DOMAIN §10;
+//	pumped flow       Q = max(load, plant minimum flow)      (bypass, docs/sources.md §6)
+//	header head       H ≥ System.Required(load)              (a floor, docs/sources.md §10;
 //	                  at the pumped flow Q with the bypass at the loop's end)
-//	unit i            H + K_i q_i² = s_i² H₀(q_i/s_i)         (affinity laws, DOMAIN §3)
+//	unit i            H + K_i q_i² = s_i² H₀(q_i/s_i)         (affinity laws, docs/sources.md §3)
 //	flow balance      Σ q_i = Q
 //	limits            MinSpeed ≤ s ≤ MaxSpeed (s = 1 for a fixed-speed unit),
 //	                  MinFlow·s ≤ q ≤ Runout·s, shaft ≤ Rated·SF,
@@ -777,8 +777,9 @@ func suitePlantNamed(t testing.TB, name string) *plant.Plant {
 // and with constant motor and drive efficiencies (and no limit binding)
 // every feasible state at Q maps onto one at λQ with speeds ×λ, flows ×λ,
 // head ×λ² and power ×λ³: the optimum follows the cube law exactly
-// (affinity laws, every pump handbook [P]; DOMAIN §3).
+// (affinity laws, every pump handbook [P]; docs/sources.md §3).
 func TestReferenceCubeLaw(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	p := suitePlantNamed(t, "constant-chain-zero-control")
 	base := curves.Flow(0.20)
 	ref0 := refSolve(p, base, false)
@@ -795,11 +796,12 @@ func TestReferenceCubeLaw(t *testing.T) {
 }
 
 // For identical units with convex power curves the equal split is optimal
-// (Viholainen et al. 2013, DOMAIN §7 [M]); the reference, which never
+// (Viholainen et al. 2013, docs/sources.md §7 [M]); the reference, which never
 // assumes it, must land on the best equal split to well within the suite
 // tolerance, and can never be above it (an equal split is one of its
 // states).
 func TestReferenceFindsEqualSplit(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	for _, name := range []string{"identical-3", "two-pole", "branch-losses"} {
 		p := suitePlantNamed(t, name)
 		for _, frac := range []float64{0.2, 0.35, 0.5, 0.65, 0.8} {
@@ -826,6 +828,7 @@ func TestReferenceFindsEqualSplit(t *testing.T) {
 // read off its curve, H = H_b (r − (r−1)(Q/Q_b)²) with the suite's r = 1.25
 // (computed check [D] from the curve's definition).
 func TestReferenceSingleFixedUnit(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	m := suiteModel{name: "F", count: 1, pump: pumpL, motorHP: 60, drive: curves.FixedSpeed{}}.build(t)
 	p := &plant.Plant{Name: "one-fixed", Fluid: curves.Fluid{Density: 999.9}, System: dp(0.1, 20, 0.5), Models: []plant.Model{m}}
 	for _, x := range []float64{0.4, 0.8, 1.0, 1.2} {
@@ -841,6 +844,7 @@ func TestReferenceSingleFixedUnit(t *testing.T) {
 
 // The refined answer must not depend on the grid it started from.
 func TestReferenceGridIndependent(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	if testing.Short() {
 		t.Skip("slow")
 	}
@@ -860,14 +864,22 @@ func TestReferenceGridIndependent(t *testing.T) {
 
 // One common speed is a restriction of individual speeds: never cheaper.
 func TestReferenceCommonNotCheaper(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
+	flows := 9
+	if testing.Short() {
+		flows = 3 // the quick loop: 1 %, 55 % and 110 % of capacity
+	}
 	for _, name := range []string{"two-sizes", "fixed-small-with-large", "three-models"} {
-		p := suitePlantNamed(t, name)
-		for _, q := range suiteFlows(p, 9) {
-			ind, com := refSolve(p, q, false), refSolve(p, q, true)
-			if com.Feasible && (!ind.Feasible || float64(com.Power) < float64(ind.Power)*(1-1e-9)) {
-				t.Errorf("%s at %.4g m³/s: common speed %.9g W below individual %v %.9g W", name, float64(q),
-					float64(com.Power), ind.Feasible, float64(ind.Power))
+		t.Run(name, func(t *testing.T) {
+			t.Parallel()
+			p := suitePlantNamed(t, name)
+			for _, q := range suiteFlows(p, flows) {
+				ind, com := refSolve(p, q, false), refSolve(p, q, true)
+				if com.Feasible && (!ind.Feasible || float64(com.Power) < float64(ind.Power)*(1-1e-9)) {
+					t.Errorf("%s at %.4g m³/s: common speed %.9g W below individual %v %.9g W", name, float64(q),
+						float64(com.Power), ind.Feasible, float64(ind.Power))
+				}
 			}
-		}
+		})
 	}
 }

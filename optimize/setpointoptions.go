@@ -38,7 +38,7 @@ type SetpointOptions struct {
 // where the running units are at their limit, down after about 10 min), and
 // the capacity margin is the usual offset of about 3 % below a stage
 // boundary (common practice and ASHRAE Guideline 36-2021 as quoted in
-// public implementation documentation, DOMAIN §7); the deadband and speed
+// public implementation documentation, docs/sources.md §7); the deadband and speed
 // margin are wattstage's starting values. All are to be adjusted on
 // commissioning.
 var DefaultSetpointOptions = SetpointOptions{

@@ -85,7 +85,7 @@ func bisectRoot(f func(float64) float64, a, b float64) float64 {
 
 // Identical units with convex power curves: the best switch from n to n+1
 // units is where their total inputs are equal at the same flow and head
-// (DOMAIN §7 [M]: Viholainen et al., Energy Efficiency 6 (2013) 495–509;
+// (docs/sources.md §7 [M]: Viholainen et al., Energy Efficiency 6 (2013) 495–509;
 // Bortoni et al., Energy Efficiency 1 (2008)). The equal-power flow is found
 // here by bisection on two fixed-count power curves computed from curves/
 // directly, not through the solver.
@@ -420,7 +420,7 @@ func binSteps(p *plant.Plant) []Step {
 
 // The price of a programmable sequence: on a bin profile the derived
 // sequence's energy is within 2 % of the unconstrained optimum (the bound the
-// issue expects; DOMAIN §10 saw 0.03 % mean, 0.5 % worst for common-speed
+// issue expects; docs/sources.md §10 saw 0.03 % mean, 0.5 % worst for common-speed
 // staging of identical units), and never below it (the sequence is one of
 // the states the optimum chooses from).
 func TestSequenceEnergyNearOptimum(t *testing.T) {
@@ -468,7 +468,7 @@ func minuteTrend(ref curves.Flow, spans ...[2]float64) []Step {
 }
 
 // The timers and the deadband: a condition must hold for its delay (5 min
-// up, 10 min down by default, DOMAIN §7 common practice), and a flow that
+// up, 10 min down by default, docs/sources.md §7 common practice), and a flow that
 // dithers across the stage-up value inside the deadband stages up once and
 // stays (no hunting).
 func TestSequenceTimersAndDeadband(t *testing.T) {
@@ -591,7 +591,7 @@ func TestOneOutResponse(t *testing.T) {
 }
 
 // The sequence text carries every stage value, the failure response and the
-// cautions (DOMAIN §9), in lines short enough to paste.
+// cautions (docs/sources.md §9), in lines short enough to paste.
 func TestSequenceOfOperationText(t *testing.T) {
 	p := mixedPlant(t, testModel(t, "small", 1, 0.4, curves.DOEDrive{}))
 	p.Units = curves.US

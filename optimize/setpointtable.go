@@ -10,31 +10,44 @@ import (
 	"wattstage/plant"
 )
 
-// WriteTable writes the stages and the staging table from Tables, so the
-// text shows the very values the CSV and JSON exports carry: each change
-// on the chosen signal, the delay, the near-equal band and what sets the
-// value. Units are in every header.
+// WriteTable writes the stages and the staging table of TextTables.
 func (sp *Setpoints) WriteTable(w io.Writer) error {
+	stages, changes := sp.TextTables()
+	tw := tabwriter.NewWriter(w, 2, 8, 2, ' ', tabwriter.AlignRight)
+	for i, rows := range [][][]string{stages, changes} {
+		if i > 0 {
+			fmt.Fprintln(tw)
+		}
+		for _, r := range rows {
+			fmt.Fprintln(tw, strings.Join(r, "\t")+"\t")
+		}
+	}
+	return tw.Flush()
+}
+
+// TextTables returns the cells of the stages and the staging table,
+// header row first, from Tables, so the text shows the very values the
+// CSV and JSON exports carry: each change on the chosen signal, the delay,
+// the near-equal band and what sets the value. Units are in every header.
+func (sp *Setpoints) TextTables() (stages, changes [][]string) {
 	u := sp.Plant.Units
 	fu := u.FlowUnit()
 	tables := sp.Tables()
-	tw := tabwriter.NewWriter(w, 2, 8, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintf(tw, "stage\truns\tfrom (%s)\tto (%s)\tspeed (%% rated)\t\n", fu, fu)
+	stages = append(stages, []string{"stage", "runs", "from (" + fu + ")", "to (" + fu + ")", "speed (% rated)"})
 	for i, st := range sp.Stages {
 		r := tables[1].Rows[i]
-		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%s\t\n", st.Number, r[1], thousands(r[2].(float64), 0), thousands(r[3].(float64), 0),
-			speedRange(st.LowSpeed, st.HighSpeed))
+		stages = append(stages, []string{fmt.Sprint(st.Number), fmt.Sprint(r[1]), thousands(r[2].(float64), 0), thousands(r[3].(float64), 0),
+			speedRange(st.LowSpeed, st.HighSpeed)})
 	}
-	fmt.Fprintln(tw)
-	fmt.Fprintf(tw, "change\tsignal\tflow (%s)\tspeed (%%)\tdelay (min)\tnear-equal band (%s)\tset by\taction\t\n", fu, fu)
+	changes = append(changes, []string{"change", "signal", "flow (" + fu + ")", "speed (%)", "delay (min)", "near-equal band (" + fu + ")", "set by", "action"})
 	for _, r := range tables[0].Rows {
 		band := "–"
 		if r[6] != nil {
 			band = thousands(r[6].(float64), 0) + "–" + thousands(r[7].(float64), 0)
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%.0f\t%s\t%s\t%s\t\n", r[0], r[2], cellNum(r[3], 0), cellNum(r[4], 0), r[5], band, r[8], r[1])
+		changes = append(changes, []string{fmt.Sprint(r[0]), fmt.Sprint(r[2]), cellNum(r[3], 0), cellNum(r[4], 0), fmt.Sprintf("%.0f", r[5]), band, fmt.Sprint(r[8]), fmt.Sprint(r[1])})
 	}
-	return tw.Flush()
+	return stages, changes
 }
 
 // cellNum writes a table value with thousands separators, "–" for none.

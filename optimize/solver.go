@@ -218,7 +218,7 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 		return s.unmet(res, Q, hr, c)
 	}
 	// A header head above the control curve can be cheaper where a speed or
-	// flow floor binds (DOMAIN §10): search it for the combos near the best.
+	// flow floor binds (docs/sources.md §10): search it for the combos near the best.
 	searched := false // best comes from the head search
 	for _, st := range near {
 		if st.power > best.power*1.02 {

@@ -4,7 +4,7 @@ import "math"
 
 // trySplits checks whether identical units of one model are cheaper at
 // unequal flows (possible where a flat efficiency curve leaves the drive
-// losses' concavity in charge, DOMAIN §10): j units at qb, the rest at qa,
+// losses' concavity in charge, docs/sources.md §10): j units at qb, the rest at qa,
 // with the model's total held. A split is kept only if it saves power.
 func (s *Solver) trySplits(st *state, Q float64) {
 	for i, n := range st.counts {

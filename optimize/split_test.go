@@ -14,7 +14,7 @@ import (
 // poor at light load (a drive efficiency table that climbs steeply from
 // light to half load — invented numbers chosen to make the point) draw less
 // with one unit loaded and the other light than with both at one speed, once
-// both must run. The solver must find that split (DOMAIN §10: the equal split
+// both must run. The solver must find that split (docs/sources.md §10: the equal split
 // is always a stationary point, so a local search from it never leaves it),
 // and the brute-force reference must agree with its power to 0.05 %.
 func TestUnequalSplitOfIdenticalUnits(t *testing.T) {

@@ -26,7 +26,7 @@ func (d *deriver) stageDown(ts []Transition, k int, lowest curves.Flow) {
 	}
 	if mf := d.p.MinFlow; mf > 0 && down < mf*1.03 {
 		// The bypass holds the pumped flow at the plant minimum: a stage-down
-		// value at or below it would never be reached (3 % offset, DOMAIN §7).
+		// value at or below it would never be reached (3 % offset, docs/sources.md §7).
 		down, lim = mf*1.03, LimitPlantBypass
 	}
 	if k > 0 && down < ts[k-1].Up.Flow {

@@ -14,7 +14,7 @@ type segment struct {
 
 // scan finds the optimal combination at every grid flow and groups the
 // points into segments. A combination that comes back after another (a
-// non-monotone optimum, DOMAIN §10) absorbs the excursion: a sequence needs
+// non-monotone optimum, docs/sources.md §10) absorbs the excursion: a sequence needs
 // one order of stages.
 func (d *deriver) scan(grid []curves.Flow) []segment {
 	var segs []segment

@@ -8,7 +8,7 @@ import (
 )
 
 // NEMA MG 10's allowed starts per hour fall with motor size and rise with
-// pole count (values from memory; the trend is what MG 10 and DOMAIN §7
+// pole count (values from memory; the trend is what MG 10 and docs/sources.md §7
 // state).
 func TestStartsPerHourShape(t *testing.T) {
 	prev := map[int]float64{2: math.Inf(1), 4: math.Inf(1), 6: math.Inf(1)}

@@ -65,7 +65,7 @@ func (sp *Setpoints) Tables() []Table {
 				lo, hi = sp.BandSetpoints(*t.Band)
 			}
 			set := string(dir.th.Limit)
-			changes.Rows = append(changes.Rows, []any{dir.name, sp.changeWords(dir.start, dir.stop), sig, flow, speed,
+			changes.Rows = append(changes.Rows, []any{dir.name, StartStop(p, dir.start, dir.stop), sig, flow, speed,
 				dir.th.Delay.Minutes(), lo, hi, set})
 		}
 	}

@@ -152,8 +152,6 @@ var (
 	slowRiseB = suitePump{bepFlow: 0.058, bepHead: 26, bepEff: 0.72, shutoff: 1.32, effK: 4.3, speedCorrection: true}
 )
 
-func with(p suitePump, f func(*suitePump)) suitePump { f(&p); return p }
-
 func dp(q curves.Flow, h curves.Head, ctlFrac float64) curves.System {
 	return curves.DPControl{DesignFlow: q, DesignHead: h, ControlHead: h * curves.Head(ctlFrac)}
 }
@@ -201,7 +199,7 @@ func (s suitePlant) build(t testing.TB) *plant.Plant {
 }
 
 // Drive efficiency of a 100 hp VFD at 1.6/12.5/25/42/50/75/100 % load, US DOE
-// Motor Systems Tip Sheet #11 (DOMAIN §5, [C]); plant data here.
+// Motor Systems Tip Sheet #11 (docs/sources.md §5, [C]); plant data here.
 var tipSheet100hp = curves.TableDrive{Table: []curves.LoadEff{
 	{Load: 0.016, Eff: 0.55}, {Load: 0.125, Eff: 0.89}, {Load: 0.25, Eff: 0.94}, {Load: 0.42, Eff: 0.95},
 	{Load: 0.50, Eff: 0.96}, {Load: 0.75, Eff: 0.97}, {Load: 1.00, Eff: 0.97}}}
@@ -336,7 +334,7 @@ const suiteTol = 5e-4
 
 func suiteNumFlows() int {
 	if testing.Short() {
-		return 9
+		return 3 // the quick loop: 1 %, 55 % and 110 % of capacity
 	}
 	return 25
 }
@@ -346,6 +344,7 @@ func suiteNumFlows() int {
 // speed and with one common speed, and checks power (within 0.05 %),
 // feasibility and the invariants of every served result.
 func TestOptimiserMatchesReference(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	for _, p := range suitePlants(t) {
 		for _, common := range []bool{false, true} {
 			mode := "individual"
@@ -588,8 +587,9 @@ func suiteInvariants(p *plant.Plant, load curves.Flow, common bool, r *optimize.
 // parabola; with constant motor and drive efficiencies and no limit
 // binding, the best state at λQ is the best at Q with speeds and flows ×λ,
 // so total power follows the cube law exactly (affinity laws, every pump
-// handbook [P]; DOMAIN §3), and so does the best count.
+// handbook [P]; docs/sources.md §3), and so does the best count.
 func TestCubeLawZeroControlHead(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	p := suitePlantNamed(t, "constant-chain-zero-control")
 	for _, common := range []bool{false, true} {
 		s := optimize.New(p, optimize.Options{CommonSpeed: common})
@@ -619,13 +619,14 @@ func TestCubeLawZeroControlHead(t *testing.T) {
 
 // For n identical units on equal speeds the switch from n to n+1 running is
 // best where their total input powers are equal at the same flow and head
-// (Viholainen et al., Energy Efficiency 6 (2013) 495–509, DOMAIN §7 [M]).
+// (Viholainen et al., Energy Efficiency 6 (2013) 495–509, docs/sources.md §7 [M]).
 // The equal-power flow is found here by bisection on the two fixed-count
 // power curves computed directly (one speed root per point, no search); the
 // optimiser's switch is found by bisection on its running count, and the two
 // must coincide. The premise (equal split optimal near the switch) is
 // checked against the brute-force reference first.
 func TestSwitchAtEqualPower(t *testing.T) {
+	t.Parallel() // independent of every other test: the suite runs in parallel
 	found := 0
 	for _, name := range []string{"identical-3", "two-pole", "branch-losses", "steep-curves", "wide-runout", "flat-curves"} {
 		p := suitePlantNamed(t, name)

@@ -10,6 +10,10 @@
 //	plant.yaml:18:21: pumps[0].motor.rated_output: 10 hp is less than the pump's shaft power at the design head (27.43 hp at 1011 gpm and 90 ft, rated speed), even with service factor 1.15
 //	plant.yaml:19:7: pumps[0].motor.servise_factor: unknown key "servise_factor" (did you mean "service_factor"?)
 //
+// The reference of the format — every section and field with its unit,
+// default, range and the source of the default — is docs/plant-file.md
+// in the repository; a test keeps it in step with this loader.
+//
 // # A plant file
 //
 //	name: North Campus chilled water     # optional; defaults to the file name
@@ -76,7 +80,7 @@
 //	  # trend:
 //	  #   file: chilled-water-trend.csv  # relative to the plant file
 //	  #   time_column: timestamp         # default the first column
-//	  #   time_format: "2006-01-02 15:04"   # Go layout, unix, unix_ms or excel; default: tried
+//	  #   time_format: "YYYY-MM-DD hh:mm"   # or "MM/DD/YYYY h:mm AM", a Go layout, unix, unix_ms or excel; default: tried
 //	  #   time_zone: America/Chicago     # IANA zone of stamps without offset (not Local); default UTC
 //	  #   interval: 60                   # minutes (or "15 min", "1 h"); default the median step
 //	  #   flow_column: plant_flow_gpm    # default the one header containing "flow"

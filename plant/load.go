@@ -333,7 +333,7 @@ func (d *decoder) readUnits(top *fields, p *Plant) {
 }
 
 // Density of water at 4 °C by Kell (1975), the reference of specific
-// gravity here (DOMAIN.md §2 check value 999.972 kg/m³).
+// gravity here (docs/sources.md §2 check value 999.972 kg/m³).
 const waterAt4C = 999.972
 
 // fluid reads the pumped fluid. With no fluid section the fluid is water at

@@ -118,7 +118,7 @@ func TestChilledWaterExample(t *testing.T) {
 		{"bin 25 % of design", float64(p.Profile.Bins[0].Flow), 0.25 * 3000 * nistGallon / 60},
 		{"bin hours add to a year", sumHours(p.Profile.Bins), 8760}, // hours in a non-leap year, common practice
 		{"discount 5 %", p.Retrofit.DiscountRate, 0.05},
-		// 10 CFR 431.25 Table 5 [V in DOMAIN.md for 25 hp 4-pole: 93.6 %];
+		// 10 CFR 431.25 Table 5 [V, docs/sources.md §4: 25 hp 4-pole 93.6 %];
 		// curves' table gives 30 hp the same value (from memory there).
 		{"motor efficiency default", p.Models[0].Motor.FullLoadEff, 0.936},
 	}
@@ -202,7 +202,7 @@ func TestCondenserExample(t *testing.T) {
 			t.Errorf("%s: got %.12g, want %.12g", c.name, c.got, c.want)
 		}
 	}
-	// Kell (1975) at 29 °C lies between the DOMAIN.md check values at
+	// Kell (1975) at 29 °C lies between the docs/sources.md §2 check values at
 	// 20 °C (998.204) and 30 °C (995.647).
 	if d := p.Fluid.Density; d <= 995.647 || d >= 998.204 {
 		t.Errorf("density at 29 °C %g, want between the Kell check values 995.647 and 998.204", d)
@@ -220,7 +220,7 @@ func TestCondenserExample(t *testing.T) {
 func TestDefaults(t *testing.T) {
 	p := mustLoad(t, "../testdata/plants/minimal-us.yaml")
 	m := p.Models[0]
-	rho20 := 998.204 // Kell (1975) at 20 °C, DOMAIN.md §2 check value [D]
+	rho20 := 998.204 // Kell (1975) at 20 °C, docs/sources.md §2 check value [D]
 	checks := []struct {
 		name      string
 		got, want float64
@@ -233,7 +233,7 @@ func TestDefaults(t *testing.T) {
 		{"min flow 30 % of BEP", float64(m.MinFlow), 0.3 * float64(m.Pump.BEPFlow), 1e-12},
 		{"runout at the last point", float64(m.Runout), 800 * nistGallon / 60, 1e-12},
 		{"service factor 1.15", m.Motor.ServiceFactor, 1.15, 0},
-		// 10 CFR 431.25 Table 5, 25 hp 4-pole enclosed: 93.6 % [V, DOMAIN.md §4]
+		// 10 CFR 431.25 Table 5, 25 hp 4-pole enclosed: 93.6 % [V, docs/sources.md §4]
 		{"full-load efficiency 25 hp 4-pole", m.Motor.FullLoadEff, 0.936, 1e-12},
 		{"plant minimum flow none", float64(p.MinFlow), 0, 0},
 	}
@@ -386,9 +386,9 @@ func TestUnitConversions(t *testing.T) {
 		{"US 68 °F is 20 °C", usPlant, func(p *Plant) float64 { return p.Fluid.Temperature },
 			func(*Plant) float64 { return 20 }}, // NIST SP 811: t/°C = (t/°F − 32)/1.8
 		{"US 68 °F water density", usPlant, rho20,
-			func(*Plant) float64 { return 998.204 }}, // Kell (1975) at 20 °C, DOMAIN.md check value
+			func(*Plant) float64 { return 998.204 }}, // Kell (1975) at 20 °C, docs/sources.md §2 check value
 		{"US 39.2 °F water density", with(usPlant, "FLUID", "{temperature: 39.2 °F}"), rho20,
-			func(*Plant) float64 { return 999.972 }}, // Kell (1975) at 4 °C, DOMAIN.md check value
+			func(*Plant) float64 { return 999.972 }}, // Kell (1975) at 4 °C, docs/sources.md §2 check value
 		{"SI bare flow is m³/h", siPlant, func(p *Plant) float64 { return float64(p.DesignFlow) },
 			func(*Plant) float64 { return 140.0 / 3600 }}, // m³/h by definition of the hour
 		{"SI L/s suffix", with(siPlant, "QD", "38.9 L/s"), func(p *Plant) float64 { return float64(p.DesignFlow) },
@@ -400,9 +400,9 @@ func TestUnitConversions(t *testing.T) {
 		{"SI kW", siPlant, func(p *Plant) float64 { return float64(p.Models[0].Motor.Rated) },
 			func(*Plant) float64 { return 15e3 }},
 		{"SI 20 °C water density", siPlant, rho20,
-			func(*Plant) float64 { return 998.204 }}, // Kell (1975), DOMAIN.md check value
+			func(*Plant) float64 { return 998.204 }}, // Kell (1975), docs/sources.md §2 check value
 		{"SI 60 °C water density", with(siPlant, "FLUID", "{temperature: 60 °C}"), rho20,
-			func(*Plant) float64 { return 983.199 }}, // Kell (1975), DOMAIN.md check value
+			func(*Plant) float64 { return 983.199 }}, // Kell (1975), docs/sources.md §2 check value
 		{"SI glycol density", with(siPlant, "FLUID", "{specific_gravity: 1.04, temperature: -5}"), rho20,
 			func(*Plant) float64 { return 1.04 * 999.972 }},
 	}
@@ -412,7 +412,7 @@ func TestUnitConversions(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			// Kell check values are given to 0.001 kg/m³ (DOMAIN.md).
+			// Kell check values are given to 0.001 kg/m³ (docs/sources.md §2).
 			tol := 1e-12
 			if strings.Contains(c.name, "density") && !strings.Contains(c.name, "glycol") {
 				tol = 0.0011 / 1000

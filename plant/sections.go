@@ -159,6 +159,8 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 		if layout, ok := d.text(v, join(path, "time_format")); ok {
 			if msg := checkLayout(layout); msg != "" {
 				d.errorf(v, join(path, "time_format"), "%s", msg)
+			} else if l, err := profile.TimeLayout(layout); err == nil {
+				layout = l // "YYYY-MM-DD hh:mm" → "2006-01-02 15:04"
 			}
 			t.TimeFormat = layout
 		}
@@ -218,8 +220,15 @@ func checkLayout(layout string) string {
 	case "unix", "unix_ms", "excel":
 		return ""
 	}
+	if !strings.ContainsAny(layout, "0123456789%") {
+		// A pattern as practitioners write it: "YYYY-MM-DD hh:mm".
+		if _, err := profile.TimeLayout(layout); err != nil {
+			return strings.TrimPrefix(err.Error(), "profile: ") + ` (write it as "YYYY-MM-DD hh:mm", "MM/DD/YYYY h:mm AM", or a Go layout such as "2006-01-02 15:04")`
+		}
+		return ""
+	}
 	if strings.Contains(layout, "%") {
-		return "time_format is a Go layout written with the reference time 2006-01-02 15:04:05 (e.g. \"2006-01-02 15:04\"), not strftime codes like %Y"
+		return "time_format is a pattern such as \"YYYY-MM-DD hh:mm\" or \"MM/DD/YYYY h:mm AM\" (or a Go layout written with the reference time, \"2006-01-02 15:04\"), not strftime codes like %Y"
 	}
 	// Any time other than the reference time formats differently from a
 	// layout that has at least one field.

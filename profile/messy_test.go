@@ -118,7 +118,7 @@ func TestMessyFile(t *testing.T) {
 		t.Errorf("line 9 flow %v m³/s", p[3].Flow)
 	}
 	// 12.0 psi as head of water at 998.2 kg/m³: 2.31 ft per psi (common
-	// practice, [P] in DOMAIN.md) gives 12 × 2.31 / 0.99823 ft = 8.464 m; the
+	// practice, [P] in docs/sources.md §1) gives 12 × 2.31 / 0.99823 ft = 8.464 m; the
 	// exact SI conversion gives 8.452 m. Tolerance 0.2 %: the 2.31 is rounded.
 	if h := float64(p[0].DP); !p[0].HasDP || math.Abs(h-12*2.31/(998.2/999.972)*curves.Foot) > 0.002*h {
 		t.Errorf("12 psi = %v m", h)

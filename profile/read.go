@@ -90,13 +90,12 @@ type reader struct {
 	warnings []Warning
 	rep      Report
 
-	delim              byte
-	header             []string
-	ti, fi, di, pi     int // column indices; -1 when unmapped
-	need               int // fields a row must have: up to the time and flow columns
-	zoned              bool
-	alt                byte // the first other delimiter a row split on
-	hdrLine, hdrStarts int
+	delim          byte
+	header         []string
+	ti, fi, di, pi int // column indices; -1 when unmapped
+	need           int // fields a row must have: up to the time and flow columns
+	zoned          bool
+	alt            byte // the first other delimiter a row split on
 }
 
 // fileKind names a file's type for a message.

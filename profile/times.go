@@ -125,6 +125,9 @@ func numericLayout(stamps []string) string {
 // that parses the most stamps.
 func (p *reader) chooseLayout(rows []*row) string {
 	if p.spec.TimeFormat != "" {
+		if l, err := TimeLayout(p.spec.TimeFormat); err == nil {
+			return l
+		}
 		return p.spec.TimeFormat
 	}
 	// Count on the first stamps, then only the layouts that fit at least

@@ -16,7 +16,7 @@ type TrendSpec struct {
 	PowerColumn string // optional: measured total pump power column, kW
 	FlowUnit    string // "gpm", "m3/h" or "L/s"; empty = read from the flow column's header
 	DPUnit      string // "psi", "kPa", "ft" or "m"; empty = read from the DP column's header
-	TimeFormat  string // Go time layout, or "unix" for epoch seconds; empty tries the common ones
+	TimeFormat  string // Go time layout, a pattern such as "YYYY-MM-DD hh:mm" (see TimeLayout), or "unix" for epoch seconds; empty tries the common ones
 
 	// TimeZone is the IANA zone (e.g. "America/Chicago") of stamps that carry
 	// no UTC offset. Empty reads such stamps as UTC wall clock, with no

@@ -53,6 +53,9 @@ func TestWeekStandsForItsYear(t *testing.T) {
 // A two-year trend whose second year repeats its first gives the first
 // year's annual values: it counts once, not twice.
 func TestTwoYearsCountOnce(t *testing.T) {
+	if testing.Short() {
+		t.Skip("slow (two years of hourly trend): run without -short")
+	}
 	start := time.Date(2025, 1, 6, 0, 0, 0, 0, time.UTC)
 	stamps, flows := hourly(start, 8736) // 52 weeks
 	one := runPlant(t, writeTrendPlant(t, stamps, flows), noRange)

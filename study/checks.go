@@ -22,7 +22,7 @@ type PartLoadCheck struct {
 }
 
 // PartLoadLimit is the 30 %-of-design-power-at-50 %-flow limit of ASHRAE
-// 90.1-2016/2019/2022 §6.5.4.2 and IECC-based codes (DOMAIN §8).
+// 90.1-2016/2019/2022 §6.5.4.2 and IECC-based codes (docs/sources.md §8).
 const PartLoadLimit = 0.30
 
 // CheckPartLoad evaluates one strategy at design flow and at half of it.

@@ -29,7 +29,7 @@ func newLoggedDP(p *plant.Plant, steps []optimize.Step) *loggedDP {
 	if !ok || !hasLoggedDP(steps) {
 		return nil
 	}
-	return &loggedDP{label: "lowest-power staging at the logged DP", plant: p, sys: sys, solver: optimize.New(p, optimize.Options{})}
+	return &loggedDP{label: "lowest-power at the logged DP", plant: p, sys: sys, solver: optimize.New(p, optimize.Options{})}
 }
 
 func hasLoggedDP(steps []optimize.Step) bool {

@@ -8,6 +8,7 @@ import (
 	"math"
 	"time"
 
+	"wattstage/internal/version"
 	"wattstage/optimize"
 )
 
@@ -19,6 +20,9 @@ const SchemaVersion = 1
 // units, snake_case keys, null for a value that does not exist.
 type JSON struct {
 	SchemaVersion  int            `json:"schema_version"`
+	Tool           string         `json:"tool"`
+	Version        string         `json:"version"`
+	InputsSHA256   *string        `json:"inputs_sha256"`
 	Plant          string         `json:"plant"`
 	Units          JSONUnits      `json:"units"`
 	Profile        JSONProfile    `json:"profile"`
@@ -250,9 +254,13 @@ func finite(v float64) *float64 {
 func (r *Result) Document() JSON {
 	p := r.Plant
 	u := p.Units
-	d := JSON{SchemaVersion: SchemaVersion, Plant: p.Name, Baseline: r.BaselineStrategy().Key, Appraised: r.Appraised,
+	d := JSON{SchemaVersion: SchemaVersion, Tool: "wattstage", Version: version.Short(), Plant: p.Name, Baseline: r.BaselineStrategy().Key, Appraised: r.Appraised,
 		Units:          JSONUnits{Flow: u.FlowUnit(), Head: u.HeadUnit(), Power: "kW", Energy: "kWh", Currency: r.Currency(), Emissions: "kg CO₂e"},
 		Recommendation: r.Recommendation, Warnings: append([]Warning{}, r.Warnings...), Cautions: r.Cautions}
+	if r.InputsSHA256 != "" {
+		h := r.InputsSHA256
+		d.InputsSHA256 = &h
+	}
 	d.Profile = JSONProfile{Kind: "bins", Source: p.Source, Steps: len(r.Steps)}
 	if r.Trend != nil {
 		d.Profile.Kind, d.Profile.Source = "trend", r.Trend.Name

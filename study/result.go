@@ -44,6 +44,10 @@ type Result struct {
 	// gathered into for the load points; 0 when each step is its own point.
 	LoadBinWidth curves.Flow
 
+	// InputsSHA256 fingerprints the plant file and the trend log it names
+	// (see InputsSHA256); "" when a file could not be read again.
+	InputsSHA256 string
+
 	Recommendation string
 	Warnings       []Warning // usable but questionable, each with where it comes from
 	Cautions       []string

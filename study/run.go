@@ -46,6 +46,8 @@ func Run(in *Input, opt Options) (*Result, error) {
 	if r.Period.Factor == 0 {
 		return nil, fmt.Errorf("study: the profile covers no hours")
 	}
+	// The fingerprint of the files read; empty when one cannot be read again.
+	r.InputsSHA256, _ = InputsSHA256(in.inputPaths()...)
 	sp, err := optimize.DeriveSetpoints(p, optimize.SetpointOptions{})
 	if err != nil {
 		r.SetpointsError = err.Error()

@@ -57,14 +57,14 @@ func Strategies(p *plant.Plant, sp *optimize.Setpoints) []Keyed {
 		ks = append(ks, Keyed{KeyCurrent, optimize.NewStaged("current sequence", p, *p.Sequence)})
 	}
 	if v := withoutReset(p); v != nil {
-		l := optimize.NewLowest("lowest-power staging, no setpoint reset", v, optimize.Options{})
+		l := optimize.NewLowest("lowest-power, no DP reset", v, optimize.Options{})
 		l.Note = "the lowest-power staging with the control head held at its design setpoint (no reset): the value of the reset itself"
 		ks = append(ks, Keyed{KeyNoReset, l})
 	}
-	pref := optimize.NewLowest("lowest-power staging inside the preferred region", p, optimize.Options{PreferredOnly: true})
+	pref := optimize.NewLowest("lowest-power, preferred region", p, optimize.Options{PreferredOnly: true})
 	pref.Note = "the lowest-power staging with every unit kept inside 70–120 % of BEP flow at its speed (ANSI/HI 9.6.3): what staying in the preferred region costs"
 	ks = append(ks, Keyed{KeyPreferred, pref})
-	if b := optimize.NewDriveBypass("lowest-power staging with drive bypass", p); b != nil {
+	if b := optimize.NewDriveBypass("lowest-power, drive bypass", p); b != nil {
 		ks = append(ks, Keyed{KeyBypassed, b})
 	}
 	if v, label := partialRetrofit(p); v != nil {

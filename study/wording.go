@@ -22,6 +22,10 @@ var Cautions = []string{
 // e.g. 122,665.
 func Grouped(v float64) string { return groupedDec(v, 0) }
 
+// GroupedDec writes v with dec decimals and thousands separators, e.g.
+// 1,800.0; "—" for NaN and ±Inf.
+func GroupedDec(v float64, dec int) string { return groupedDec(v, dec) }
+
 // groupedDec writes v with dec decimals and thousands separators.
 func groupedDec(v float64, dec int) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {

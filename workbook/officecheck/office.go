@@ -19,6 +19,9 @@ const convertTimeout = 3 * time.Minute
 // test; under CI (CI=true) a missing soffice fails it instead.
 func Soffice(tb testing.TB) string {
 	tb.Helper()
+	if testing.Short() {
+		tb.Skip("opens LibreOffice (seconds per file): run without -short")
+	}
 	path := Tool(tb, "soffice", "LibreOffice 7.4 or later (Debian: libreoffice-calc-nogui)")
 	out, err := exec.Command(path, "--version").CombinedOutput()
 	if err != nil {
