@@ -77,13 +77,6 @@ func speedRange(lo, hi float64) string {
 	return pct(lo) + "–" + pct(hi)
 }
 
-func orDash(s string) string {
-	if s == "" {
-		return "–"
-	}
-	return s
-}
-
 // StartStop writes "+1 × big −1 × small".
 func StartStop(p *plant.Plant, start, stop []int) string {
 	var parts []string

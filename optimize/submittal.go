@@ -24,13 +24,6 @@ func unitKey(u string) string {
 	return strings.ToLower(r.Replace(u))
 }
 
-func finiteOr(v float64) any {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return nil
-	}
-	return v
-}
-
 // Tables are the setpoint table, the stages, the DP schedule and the points
 // list, ready for CSV or JSON.
 func (sp *Setpoints) Tables() []Table {
