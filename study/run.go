@@ -2,6 +2,8 @@ package study
 
 import (
 	"fmt"
+	"runtime"
+	"sync"
 
 	"wattstage/curves"
 	"wattstage/econ"
@@ -81,29 +83,43 @@ func Run(in *Input, opt Options) (*Result, error) {
 	if base == KeyLowest {
 		sens = nil
 	}
-	progress := func(label string, i int) {
-		if opt.Progress != nil {
-			opt.Progress(label, i, len(ks)+len(sens))
-		}
-	}
 	r.LoadBinWidth = loadBinWidth(in, opt.LoadBinWidth)
-	for i, k := range ks {
-		progress(k.Strategy.Name(), i)
-		s, err := r.runStrategy(k, opt.KeepStates)
+	// The strategies and the range cases are independent: run them on
+	// every core, each in its own slot, so the result is the same whatever
+	// the order they finish in.
+	r.Strategies = make([]Strategy, len(ks))
+	cases := make([]RangeCase, len(sens))
+	errs := make([]error, len(ks)+len(sens))
+	var mu sync.Mutex
+	done := 0
+	report := func(label string) {
+		if opt.Progress == nil {
+			return
+		}
+		mu.Lock()
+		defer mu.Unlock()
+		opt.Progress(label, done, len(ks)+len(sens))
+		done++
+	}
+	parallel(len(ks)+len(sens), func(j int) {
+		if j < len(ks) {
+			report(ks[j].Strategy.Name())
+			r.Strategies[j], errs[j] = r.runStrategy(ks[j], opt.KeepStates)
+			return
+		}
+		s := sens[j-len(ks)]
+		report("savings range: " + s.Label)
+		cases[j-len(ks)], errs[j] = r.rangeCase(s, base)
+	})
+	for _, err := range errs {
 		if err != nil {
 			return nil, err
 		}
-		r.Strategies = append(r.Strategies, s)
 	}
 	if err := r.compare(); err != nil {
 		return nil, err
 	}
-	for i, s := range sens {
-		progress("savings range: "+s.Label, len(ks)+i)
-		rc, err := r.rangeCase(s, base)
-		if err != nil {
-			return nil, err
-		}
+	for _, rc := range cases {
 		r.addRangeCase(rc)
 	}
 	r.runChecks(ks)
@@ -238,4 +254,25 @@ func loadBinWidth(in *Input, given curves.Flow) curves.Flow {
 		return 0
 	}
 	return top / 20
+}
+
+// parallel calls f(0) … f(n−1) on up to GOMAXPROCS goroutines and waits.
+func parallel(n int, f func(int)) {
+	workers := min(n, runtime.GOMAXPROCS(0))
+	next := make(chan int)
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for j := range next {
+				f(j)
+			}
+		}()
+	}
+	for j := 0; j < n; j++ {
+		next <- j
+	}
+	close(next)
+	wg.Wait()
 }
