@@ -99,6 +99,7 @@ func Run(in *Input, opt Options) (*Result, error) {
 	}
 	r.runChecks(ks)
 	r.GroupPower = groupPower(p, ks)
+	r.CountPower, r.StageCurves = countPower(p), stageCurves(p, r.Setpoints)
 	r.gatherWarnings(in)
 	r.Recommendation = recommendation(r)
 	return r, nil
