@@ -3,6 +3,7 @@ package cmd
 import (
 	"errors"
 	"fmt"
+	"time"
 
 	"wattstage/handover"
 	"wattstage/study"
@@ -15,6 +16,7 @@ func writeWorkbook(path, input string, force bool, res *study.Result) error {
 	if err != nil {
 		return err
 	}
+	rep.Date = time.Now().Format("2006-01-02")
 	inputs := []string{input}
 	if res.Trend != nil {
 		inputs = append(inputs, res.Trend.Name)

@@ -10,8 +10,9 @@ import (
 
 // countPowerPoints is the number of plant flows on the chart of power by
 // number of running units: fine enough that a crossover read off the chart
-// lies within 1/60 of the design flow of the derived one.
-const countPowerPoints = 60
+// lies within 1/30 of the design flow of the derived one, and few enough
+// that its table prints on one page.
+const countPowerPoints = 30
 
 // CountPower is the group input of the lowest-power staging held at one
 // number of running units, across plant flow: the picture of why each

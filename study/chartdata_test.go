@@ -34,8 +34,8 @@ func TestCountPowerAgreesWithLowest(t *testing.T) {
 				best, at := math.Inf(1), -1
 				for _, cp := range r.CountPower {
 					for k, f := range cp.Flow {
-						// The per-count grid (60 points) holds every flow of
-						// the group power grid (30 points).
+						// The per-count grid and the group power grid are
+						// the same 30 flows.
 						if math.Abs(float64(f-q)) < 1e-12 && cp.KW[k] < best {
 							best, at = cp.KW[k], k
 						}
@@ -63,7 +63,7 @@ func TestCountPowerAgreesWithLowest(t *testing.T) {
 				}
 				// Either side of the crossover, one grid step away, the
 				// lower count is cheaper below and the upper above.
-				step := r.Plant.DesignFlow / 60
+				step := r.Plant.DesignFlow / 30
 				below, above := tr.Crossover-step, tr.Crossover+step
 				pl, ph := kwAt(r.CountPower[lo-1], below), kwAt(r.CountPower[hi-1], below)
 				if !math.IsNaN(pl) && !math.IsNaN(ph) && pl > ph*(1+1e-6) {
