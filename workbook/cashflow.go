@@ -127,7 +127,7 @@ func (b *book) cashFlowSection(s *sheet, row, last int) int {
 		YAxis: excelize.ChartAxis{Title: axisTitle("Cumulative discounted cash flow (" + cur + ")"), MajorGridLines: true, Font: axisFont,
 			NumFmt: excelize.ChartNumFmt{CustomNumFmt: "#,##0"}},
 		ShowBlanksAs: "gap",
-		Format:       excelize.GraphicOptions{AltText: "Cumulative discounted cash flow", PrintObject: boolPtr(true)},
+		Format:       excelize.GraphicOptions{AltText: "Cumulative discounted cash flow", PrintObject: boolPtr(true), OffsetY: chartOffset},
 		Series: []excelize.ChartSeries{
 			{Name: ref(sheetEconomics, 4, head), Categories: rangeRef(sheetEconomics, 1, first, 1, end), Values: rangeRef(sheetEconomics, 4, first, 4, end),
 				Line: lineFor(StyleLine, palette[0]), Marker: markerFor(StyleLine, true, palette[0], 0)},

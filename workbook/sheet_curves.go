@@ -22,6 +22,10 @@ const (
 	bandsPerPage  = 2
 	chartsPerPage = chartsPerRow * bandsPerPage
 	chartRowPt    = 15.0 // row height on the Curves sheet, points (20 px)
+	// chartOffset moves each chart a few pixels down into its first row:
+	// a chart whose top lies exactly on a page break is also drawn, cut,
+	// at the foot of the page before (seen in LibreOffice).
+	chartOffset = 4 // px
 )
 
 // palette is our own set of line colours, dark enough to read on white and
@@ -154,7 +158,7 @@ func (b *book) scatterChart(sheetName, cell string, ch *Chart, refs []seriesRefs
 		YAxis: excelize.ChartAxis{Title: axisTitle(ch.YLabel), MajorGridLines: true, Font: axisFont,
 			Minimum: &ymin, Maximum: &ymax, MajorUnit: ch.YStep},
 		ShowBlanksAs: "gap",
-		Format:       excelize.GraphicOptions{AltText: ch.Title, PrintObject: boolPtr(true)},
+		Format:       excelize.GraphicOptions{AltText: ch.Title, PrintObject: boolPtr(true), OffsetY: chartOffset},
 	}
 	for k, r := range refs {
 		colour := palette[k%len(palette)]
@@ -228,7 +232,7 @@ func (b *book) barChart(sheetName, cell string, bars *Bars, refs []seriesRefs) {
 		YAxis: excelize.ChartAxis{Title: axisTitle(bars.YLabel), MajorGridLines: true, Font: axisFont,
 			Minimum: &ymin, Maximum: &ymax, NumFmt: excelize.ChartNumFmt{CustomNumFmt: "#,##0"}},
 		GapWidth: &gap,
-		Format:   excelize.GraphicOptions{AltText: bars.Title, PrintObject: boolPtr(true)},
+		Format:   excelize.GraphicOptions{AltText: bars.Title, PrintObject: boolPtr(true), OffsetY: chartOffset},
 	}
 	if len(bars.Series) == 1 {
 		c.Legend.Position = "none"
@@ -268,7 +272,7 @@ func (b *book) energyChart(sheetName, cell string) {
 			Minimum: &ymin, Maximum: &ymax, NumFmt: excelize.ChartNumFmt{CustomNumFmt: "#,##0"}},
 		PlotArea: excelize.ChartPlotArea{ShowVal: true, NumFmt: excelize.ChartNumFmt{CustomNumFmt: "#,##0"}},
 		GapWidth: &gap,
-		Format:   excelize.GraphicOptions{AltText: "Annual energy by strategy", PrintObject: boolPtr(true)},
+		Format:   excelize.GraphicOptions{AltText: "Annual energy by strategy", PrintObject: boolPtr(true), OffsetY: chartOffset},
 		Series: []excelize.ChartSeries{{
 			Name:       ref(sheetEconomics, 1, econRow(ekWh)),
 			Categories: rangeRef(sheetEconomics, first, econTableRow, last, econTableRow),
@@ -299,7 +303,8 @@ func dataBounds(ch *Chart) (xlo, xhi, ylo, yhi float64) {
 
 // axisRange is a rounded axis range holding [lo, hi]: from 0 when lo is
 // not negative, else from lo rounded down; to hi rounded up, to a step of
-// 1, 2, 2.5 or 5 × 10ᵏ that gives about five divisions. With step > 0 the
+// 1, 2, 2.5 or 5 × 10ᵏ that gives five to eight divisions (fewer leave up
+// to a third of the plot empty past the data). With step > 0 the
 // range is whole steps with a step of room above hi.
 func axisRange(lo, hi, step float64) (float64, float64) {
 	if !finite(lo) || !finite(hi) {
@@ -314,7 +319,7 @@ func axisRange(lo, hi, step float64) (float64, float64) {
 	if hi <= lo {
 		hi = lo + math.Max(1, math.Abs(lo))
 	}
-	d := niceStep((hi - lo) / 5)
+	d := niceStep((hi - lo) / 8)
 	return math.Floor(lo/d) * d, math.Ceil(hi/d-1e-9) * d
 }
 

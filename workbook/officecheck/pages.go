@@ -13,7 +13,7 @@ import (
 // Fold writes text with every run of white space as one space.
 func Fold(s string) string { return strings.Join(strings.Fields(s), " ") }
 
-// SheetPages reads each page's footer and returns the pages (from 0) of
+// SheetPages reads each page's footer (its last printed line) and returns the pages (from 0) of
 // each of the sheets named, failing the test for a page without the
 // footer (a sheet's name, then "· page x of y"), or whose footer numbers
 // it wrongly, or that lacks any of the words in footer (the plant's name,
@@ -26,8 +26,8 @@ func (r *Rendered) SheetPages(tb testing.TB, sheets []string, footer ...string) 
 	}
 	footerRe := regexp.MustCompile(`(` + strings.Join(names, "|") + `) · page (\d+) of (\d+)`)
 	out := map[string][]int{}
-	for i, p := range r.Pages {
-		text := Fold(p)
+	for i := range r.Pages {
+		text := Fold(r.Footers[i])
 		m := footerRe.FindAllStringSubmatch(text, -1)
 		if len(m) == 0 {
 			tb.Errorf("page %d has no footer with the sheet and page x of y: %.120q", i+1, text)
