@@ -49,7 +49,7 @@ type placed struct {
 func (b *book) curvesSheet() *sheet {
 	s := b.newSheet(sheetCurves, false)
 	s.text(1, 1, "Curves: "+b.r.Plant, "title")
-	s.text(1, 2, "Native charts drawn from the Curve data and Economics sheets: operating points on the pump curves, why each number of running units wins, the staging bands, the load profile and each strategy's input.", "subtitle")
+	s.text(1, 2, "Charts from the Curve data sheet. Minimum flow, runout and the preferred region are marked: confirm them, NPSH and motor cooling at low speed with the manufacturers (see the cautions).", "subtitle")
 	return s
 }
 
