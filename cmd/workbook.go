@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"strings"
+	"time"
 
 	"wattstage/handover"
 	"wattstage/study"
@@ -16,6 +17,7 @@ func writeWorkbook(path, input string, force bool, res *study.Result) error {
 	if err != nil {
 		return err
 	}
+	rep.Date = time.Now().Format("2006-01-02")
 	inputs := []string{input}
 	if res.Trend != nil {
 		inputs = append(inputs, res.Trend.Name)

@@ -30,6 +30,11 @@ func Build(res *study.Result) (*workbook.Report, error) {
 		Assumptions: assumptions(res),
 		Baseline:    res.Baseline,
 		Staging:     Staging(res),
+		Version:     Version(),
+		Trend:       trendRecord(res),
+	}
+	if lo := res.Strategy(study.KeyLowest); lo != nil && lo.Appraisal != nil {
+		r.CashFlow = lo.Name
 	}
 	for _, w := range res.Warnings {
 		r.Notes = append(r.Notes, w.Source+": "+w.Message)
@@ -66,7 +71,7 @@ func pumpCount(p *plant.Plant) string {
 
 func assumptions(res *study.Result) []string {
 	p := res.Plant
-	out := append([]string(nil), p.Defaults...)
+	out := plainDefaults(p)
 	out = append(out,
 		"Pumped flow is the larger of the load flow and the plant minimum flow; the bypass carries the difference.",
 		"The header head is at least the system's need at the load flow; above it, valves absorb the excess.",
@@ -194,7 +199,7 @@ func strategies(r *workbook.Report, res *study.Result) {
 			EnergyCost: a.EnergyCost, BilledDemand: a.BilledDemand})
 	}
 	if res.Recommendation != "" {
-		r.Recommendation = res.Recommendation + " (Written by wattstage from the inputs as given; editing the Economics inputs recalculates the tables, not this sentence.)"
+		r.Recommendation = res.Recommendation
 	}
 	if rg := res.Range; rg != nil {
 		lo := res.Strategy(study.KeyLowest)
@@ -291,9 +296,6 @@ func loadPoints(res *study.Result) []workbook.LoadPoint {
 			if s.HeaderHead > s.RequiredHead*(1+1e-6) {
 				flags = appendOnce(flags, "above the control curve")
 			}
-			if lp.Grouped {
-				flags = appendOnce(flags, fmt.Sprintf("%d intervals; units shown for a typical one", lp.Steps))
-			}
 			w.Running = strings.Join(names, "+")
 			w.Flags = strings.Join(flags, "; ")
 			out = append(out, w)
@@ -324,93 +326,4 @@ func pointLabel(res *study.Result, lp study.LoadPoint, i int) string {
 		return res.Steps[i].Time.Format("2006-01-02 15:04")
 	}
 	return fmt.Sprintf("bin %d", i+1)
-}
-
-// curveTables tabulates the charts: each model's head at several speeds
-// with the control curve shared by 1…n running units, efficiency at those
-// speeds, and each strategy's group power across plant flow.
-func curveTables(res *study.Result) workbook.Curves {
-	p := res.Plant
-	u := p.Units
-	var c workbook.Curves
-	for _, m := range p.Models {
-		top := m.Runout
-		if top <= 0 {
-			top = m.Pump.LastFlow
-		}
-		speeds := speedSet(m)
-		hc := workbook.Chart{Title: m.Name + ": head at several speeds, and the system curve shared by n units",
-			XLabel: "Flow per unit (" + u.FlowUnit() + ")", YLabel: "Head (" + u.HeadUnit() + ")"}
-		ec := workbook.Chart{Title: m.Name + ": pump efficiency", XLabel: "Flow per unit (" + u.FlowUnit() + ")", YLabel: "Efficiency (%)"}
-		const n = 24
-		for _, s := range speeds {
-			hs := workbook.Series{Name: fmt.Sprintf("%.0f %% speed", 100*s)}
-			es := workbook.Series{Name: fmt.Sprintf("%.0f %% speed", 100*s)}
-			for k := 0; k <= n; k++ {
-				q := curves.Flow(float64(top) * s * float64(k) / n)
-				h := m.Pump.Head(q, s)
-				if h <= 0 {
-					continue
-				}
-				hs.X = append(hs.X, u.FlowOut(q))
-				hs.Y = append(hs.Y, u.HeadOut(h))
-				if k > 0 {
-					es.X = append(es.X, u.FlowOut(q))
-					es.Y = append(es.Y, 100*m.Pump.Eff(q, s))
-				}
-			}
-			hc.Series = append(hc.Series, hs)
-			ec.Series = append(ec.Series, es)
-		}
-		for units := 1; units <= unitsTotal(p); units++ {
-			ss := workbook.Series{Name: fmt.Sprintf("system, %d running", units)}
-			// Up to a tenth past the design flow shared by the running units:
-			// beyond it the curve only stretches the head axis.
-			span := top
-			if p.DesignFlow > 0 {
-				span = min(top, 1.1*p.DesignFlow/curves.Flow(units))
-			}
-			for k := 0; k <= n; k++ {
-				q := curves.Flow(float64(span) * float64(k) / n)
-				ss.X = append(ss.X, u.FlowOut(q))
-				ss.Y = append(ss.Y, u.HeadOut(p.System.Required(q*curves.Flow(units))))
-			}
-			hc.Series = append(hc.Series, ss)
-		}
-		c.Head = append(c.Head, hc)
-		c.Efficiency = append(c.Efficiency, ec)
-	}
-	gp := workbook.Chart{Title: "Group input power across plant flow", XLabel: "Plant flow (" + u.FlowUnit() + ")", YLabel: "Input power (kW)"}
-	for _, pc := range res.GroupPower {
-		series := workbook.Series{Name: pc.Name}
-		for k, q := range pc.Flow {
-			series.X = append(series.X, u.FlowOut(q))
-			series.Y = append(series.Y, pc.KW[k])
-		}
-		gp.Series = append(gp.Series, series)
-	}
-	c.GroupPower = gp
-	return c
-}
-
-func unitsTotal(p *plant.Plant) int {
-	n := 0
-	for _, m := range p.Models {
-		n += m.Count
-	}
-	return n
-}
-
-// speedSet picks rated speed, the minimum speed and a few between.
-func speedSet(m plant.Model) []float64 {
-	if !m.Drive.Variable() {
-		return []float64{1}
-	}
-	out := []float64{math.Min(1, m.MaxSpeed)}
-	for _, s := range []float64{0.9, 0.8, 0.7, 0.6, 0.5} {
-		if s > m.MinSpeed+0.05 && s < out[0] {
-			out = append(out, s)
-		}
-	}
-	return append(out, m.MinSpeed)
 }

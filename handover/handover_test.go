@@ -62,8 +62,8 @@ func TestStrategiesMatchResult(t *testing.T) {
 					t.Errorf("recommendation %q lacks %q", r.Recommendation, want)
 				}
 			}
-			if !strings.Contains(r.Recommendation, "not this sentence") {
-				t.Errorf("recommendation %q does not say it is not recalculated", r.Recommendation)
+			if r.Recommendation != res.Recommendation {
+				t.Errorf("recommendation %q, the study's %q", r.Recommendation, res.Recommendation)
 			}
 		})
 	}
@@ -216,10 +216,15 @@ func checkPoint(t *testing.T, where string, u curves.UnitSystem, lp workbook.Loa
 	}
 }
 
-// TestCharts: a head and an efficiency chart per pump model, a group power
-// series per strategy, equal-length X and Y in every series; the rated
-// speed head curve is the fitted polynomial shown on the Inputs sheet, and
-// the curves at lower speed follow the affinity laws.
+// TestCharts: an operating-points and an efficiency chart per pump model,
+// a group power series per strategy, equal-length X and Y in every series;
+// the rated speed head curve is the fitted polynomial shown on the Inputs
+// sheet, and the curves at lower speed follow the affinity laws; as many
+// system curves as the model has units installed; every operating point
+// of the lowest-power staging is drawn and lies on its unit's curve at its
+// speed; the preferred-region, minimum-flow and runout edges follow the
+// affinity laws from their rated-speed flows (ANSI/HI 9.6.3 preferred
+// region 70–120 % of BEP flow, as quoted in the trade press [V]).
 func TestCharts(t *testing.T) {
 	for _, name := range exampleFiles {
 		t.Run(name, func(t *testing.T) {
@@ -236,7 +241,7 @@ func TestCharts(t *testing.T) {
 					t.Errorf("chart %q: %d series, axes %q and %q", ch.Title, len(ch.Series), ch.XLabel, ch.YLabel)
 				}
 				for _, s := range ch.Series {
-					if len(s.X) != len(s.Y) || len(s.X) < 2 {
+					if len(s.X) != len(s.Y) || len(s.X) < 2 && s.Style != workbook.StylePoints || len(s.X) == 0 {
 						t.Errorf("chart %q, series %q: %d x and %d y values", ch.Title, s.Name, len(s.X), len(s.Y))
 					}
 				}
@@ -249,10 +254,7 @@ func TestCharts(t *testing.T) {
 					t.Errorf("group power series %d is %q, strategy %q", i, s.Name, r.Strategies[i].Name)
 				}
 			}
-			units := 0
-			for _, m := range p.Models {
-				units += m.Count
-			}
+			lowest := ex.result.Strategy(study.KeyLowest)
 			for i, m := range p.Models {
 				hc := c.Head[i]
 				if !strings.HasPrefix(hc.Title, m.Name+":") || !strings.HasPrefix(c.Efficiency[i].Title, m.Name+":") {
@@ -272,10 +274,27 @@ func TestCharts(t *testing.T) {
 						}
 						continue
 					}
-					checkAffinity(t, hc.Title, s, r.Pumps[i].HeadFit)
+					switch s.Name {
+					case "lowest-power staging, each load step":
+						checkOperatingPoints(t, ex, i, s, lowest)
+					case "best efficiency point (rated speed)":
+						if !near(s.X[0], u.FlowOut(m.Pump.BEPFlow), 1e-12) || !near(s.Y[0], u.HeadOut(m.Pump.BEPHead), 1e-12) {
+							t.Errorf("%s: BEP drawn at (%v, %v)", m.Name, s.X[0], s.Y[0])
+						}
+					case "preferred region, 70 % of BEP flow":
+						checkEdge(t, hc.Title, s, r.Pumps[i].HeadFit, 0.7*r.Pumps[i].BEPFlow)
+					case "preferred region, 120 % of BEP flow":
+						checkEdge(t, hc.Title, s, r.Pumps[i].HeadFit, 1.2*r.Pumps[i].BEPFlow)
+					case "minimum flow":
+						checkEdge(t, hc.Title, s, r.Pumps[i].HeadFit, r.Pumps[i].MinFlow)
+					case "runout":
+						checkEdge(t, hc.Title, s, r.Pumps[i].HeadFit, r.Pumps[i].MaxFlow)
+					default:
+						checkAffinity(t, hc.Title, s, r.Pumps[i].HeadFit)
+					}
 				}
-				if systems != units {
-					t.Errorf("%s: %d system curves, want one per running count 1…%d", m.Name, systems, units)
+				if systems != m.Count {
+					t.Errorf("%s: %d system curves, want one per running count 1…%d (its installed units)", m.Name, systems, m.Count)
 				}
 			}
 		})
@@ -309,7 +328,9 @@ func thousands(v float64) string {
 // (docs/sources.md §3, every pump handbook [P]).
 func checkAffinity(t *testing.T, chart string, s workbook.Series, fit []float64) {
 	t.Helper()
-	pct, ok := strings.CutSuffix(s.Name, " % speed")
+	name := strings.TrimPrefix(s.Name, "head at ")
+	name = strings.TrimSuffix(strings.TrimSuffix(name, " (maximum)"), " (minimum)")
+	pct, ok := strings.CutSuffix(name, " % speed")
 	v, err := strconv.ParseFloat(pct, 64)
 	if !ok || err != nil {
 		t.Errorf("%s: series %q is neither a speed nor a system curve", chart, s.Name)
@@ -324,6 +345,51 @@ func checkAffinity(t *testing.T, chart string, s workbook.Series, fit []float64)
 		if want := sp * sp * h0; !near(s.Y[k], want, 1e-9) {
 			t.Errorf("%s, %s at %v: head %v, affinity law on the fitted curve %v", chart, s.Name, q, s.Y[k], want)
 			return
+		}
+	}
+}
+
+// checkEdge checks a limit drawn across speeds: each point (q, h) is the
+// rated-speed flow ref scaled to speed s = q/ref (affinity: flow ∝ s) at
+// the head of the fitted curve at that speed (h = s²·H₀(q/s)).
+func checkEdge(t *testing.T, chart string, s workbook.Series, fit []float64, ref float64) {
+	t.Helper()
+	for k, q := range s.X {
+		sp := q / ref
+		h0 := 0.0
+		for pow, a := range fit {
+			h0 += a * math.Pow(q/sp, float64(pow))
+		}
+		if want := sp * sp * h0; !near(s.Y[k], want, 1e-9) {
+			t.Errorf("%s, %s at %v: head %v, the fitted curve at %.3f × rated speed gives %v", chart, s.Name, q, s.Y[k], sp, want)
+			return
+		}
+	}
+}
+
+// checkOperatingPoints: every running unit of model i at every load point
+// of the lowest-power staging is on the chart, and its head is the pump
+// curve's at its flow and speed less nothing (the unit's own head).
+func checkOperatingPoints(t *testing.T, ex *example, i int, s workbook.Series, lowest *study.Strategy) {
+	t.Helper()
+	u := ex.plant.Units
+	m := ex.plant.Models[i]
+	drawn := map[[2]float64]bool{}
+	for k := range s.X {
+		drawn[[2]float64{s.X[k], s.Y[k]}] = true
+	}
+	for _, lp := range lowest.LoadPoints {
+		for _, un := range lp.State.Units {
+			if un.Model != i {
+				continue
+			}
+			if !drawn[[2]float64{u.FlowOut(un.Flow), u.HeadOut(un.Head)}] {
+				t.Errorf("%s: the unit at %v %s, %v %s is not drawn", m.Name, u.FlowOut(un.Flow), u.FlowUnit(), u.HeadOut(un.Head), u.HeadUnit())
+			}
+			// 1e-6 relative: the solver's own tolerance on the head balance.
+			if want := m.Pump.Head(un.Flow, un.Speed); !near(float64(un.Head), float64(want), 1e-6) {
+				t.Errorf("%s: operating point head %v m off its curve (%v m at %.3f speed)", m.Name, un.Head, want, un.Speed)
+			}
 		}
 	}
 }

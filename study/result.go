@@ -40,6 +40,10 @@ type Result struct {
 	DP          *DPComparison          // the trend's logged DP against the modelled setpoint; nil without logged DP
 	GroupPower  []PowerCurve           // each strategy's group input across plant flow, for the chart
 
+	// Chart tables of the workbook's staging pictures (study/chartdata.go).
+	CountPower  []CountPower // the lowest-power staging held at each number of running units
+	StageCurves []StageCurve // full-speed parallel curve of each derived stage; mixed plants only
+
 	// LoadBinWidth is the width of the flow groups a trend's intervals are
 	// gathered into for the load points; 0 when each step is its own point.
 	LoadBinWidth curves.Flow

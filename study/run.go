@@ -131,6 +131,7 @@ func Run(in *Input, opt Options) (*Result, error) {
 		r.DP = c
 	}
 	r.GroupPower = groupPower(p, ks)
+	r.CountPower, r.StageCurves = countPower(p), stageCurves(p, r.Setpoints)
 	r.gatherWarnings(in)
 	r.Recommendation = recommendation(r)
 	return r, nil

@@ -30,6 +30,7 @@ type sheet struct {
 	widths map[int]float64 // column → widest content, in character widths
 	fixed  map[int]float64 // column → width set explicitly, wins over fitting
 	tall   []tallRow       // rows whose height follows wrapped text
+	used   int             // last row written, for sheets laid out in two steps
 }
 
 // Value is what a formula cell evaluates to: a number, or a text when
@@ -229,6 +230,16 @@ const (
 	lineHeight  = 15.0 // points per wrapped line at the 11 pt body font
 )
 
+// setWidths sets the widths of the columns fixed so far. A chart's extent
+// is anchored to the columns it covers when it is added, so a sheet with a
+// chart sets its widths before adding it.
+func (s *sheet) setWidths() {
+	for _, col := range sortedKeys(s.fixed) {
+		name := colName(col)
+		s.b.fail(s.b.f.SetColWidth(s.name, name, name, s.fixed[col]))
+	}
+}
+
 // finish fits the column widths and the heights of wrapped rows.
 func (s *sheet) finish() {
 	if s.b.err != nil {
@@ -240,10 +251,7 @@ func (s *sheet) finish() {
 		}
 		s.fixed[col] = math.Min(math.Max(w+3, minColWidth), maxColWidth) // content, indent, margin
 	}
-	for _, col := range sortedKeys(s.fixed) {
-		name := colName(col)
-		s.b.fail(s.b.f.SetColWidth(s.name, name, name, s.fixed[col]))
-	}
+	s.setWidths()
 	heights := map[int]float64{}
 	for _, t := range s.tall {
 		lines := 1
@@ -289,7 +297,7 @@ func wrappedLines(text string, width float64, bold bool) int {
 		lines++
 		used := 0
 		for _, word := range strings.Fields(para) {
-			n := utf8.RuneCountInString(word)
+			n := wordWidth(word)
 			switch {
 			case used == 0:
 				used = n
@@ -306,6 +314,21 @@ func wrappedLines(text string, width float64, bold bool) int {
 		}
 	}
 	return lines
+}
+
+// wordWidth is a word's width in characters of average width: a capital
+// letter counts as 1.3 (a run of capitals, such as a pump tag, is about a
+// third wider than the same number of lower-case letters or digits).
+func wordWidth(word string) int {
+	w := 0.0
+	for _, r := range word {
+		if r >= 'A' && r <= 'Z' {
+			w += 1.3
+		} else {
+			w++
+		}
+	}
+	return int(math.Ceil(w))
 }
 
 func sortedKeys[V any](m map[int]V) []int {
@@ -417,19 +440,15 @@ func activePane(col, row int) string {
 }
 
 // pageSetup sets the print area to A1 through (lastCol, lastRow), the
-// orientation, and scaling to one page wide.
+// orientation, the paper, the footer, and scaling to one page wide (as
+// many pages down as it takes; manual page breaks keep tables and charts
+// whole).
 func (b *book) pageSetup(s *sheet, landscape bool, lastCol, lastRow int) {
 	b.pageSetupWide(s, landscape, lastCol, lastRow, 1)
 }
 
 // pageSetupWide is pageSetup scaled to the given number of pages across.
 func (b *book) pageSetupWide(s *sheet, landscape bool, lastCol, lastRow, pagesWide int) {
-	b.pageSetupFit(s, landscape, lastCol, lastRow, pagesWide, 0)
-}
-
-// pageSetupFit is pageSetup scaled to pagesWide pages across and pagesTall
-// down (0 = as many as it takes).
-func (b *book) pageSetupFit(s *sheet, landscape bool, lastCol, lastRow, pagesWide, pagesTall int) {
 	if b.err != nil {
 		return
 	}
@@ -437,21 +456,65 @@ func (b *book) pageSetupFit(s *sheet, landscape bool, lastCol, lastRow, pagesWid
 	if landscape {
 		orient = "landscape"
 	}
-	paper, tall := 9, pagesTall // SpreadsheetML paper sizes: 1 US Letter, 9 A4
-	if b.r.Units.System == "US" {
-		paper = 1
-	}
+	paper, tall := b.paperSize(), 0
 	b.fail(b.f.SetPageLayout(s.name, &excelize.PageLayoutOptions{
 		Size: &paper, Orientation: &orient, FitToWidth: &pagesWide, FitToHeight: &tall,
 	}))
 	fit := true
 	b.fail(b.f.SetSheetProps(s.name, &excelize.SheetPropsOptions{FitToPage: &fit}))
-	margin := 0.5
+	margin, edge := 0.5, 0.25
 	b.fail(b.f.SetPageMargins(s.name, &excelize.PageLayoutMarginsOptions{
-		Left: &margin, Right: &margin, Top: &margin, Bottom: &margin,
+		Left: &margin, Right: &margin, Top: &margin, Bottom: &margin, Header: &edge, Footer: &edge,
 	}))
+	b.fail(b.f.SetHeaderFooter(s.name, &excelize.HeaderFooterOptions{OddFooter: b.footer()}))
 	b.fail(b.f.SetDefinedName(&excelize.DefinedName{
 		Name: "_xlnm.Print_Area", Scope: s.name,
 		RefersTo: rangeRef(s.name, 1, 1, lastCol, lastRow),
 	}))
+}
+
+// SpreadsheetML paper sizes.
+const (
+	paperLetter = 1
+	paperA4     = 9
+)
+
+// paperSize is the Report's paper: Letter for US units unless it says A4,
+// A4 otherwise unless it says Letter.
+func (b *book) paperSize() int {
+	switch strings.ToLower(b.r.Paper) {
+	case "a4":
+		return paperA4
+	case "letter":
+		return paperLetter
+	}
+	if b.r.Units.System == "US" {
+		return paperLetter
+	}
+	return paperA4
+}
+
+// footer is every printed page's footer: the plant on the left, the sheet
+// and page x of y in the middle, the program's version and the report date
+// on the right, in SpreadsheetML header/footer codes (&A the sheet name,
+// &P the page, &N the pages; a literal & is &&).
+func (b *book) footer() string {
+	plant := []rune(b.r.Plant)
+	if len(plant) > 80 { // the whole footer must stay under 255 characters
+		plant = append(plant[:79], '…')
+	}
+	right := "wattstage " + b.version()
+	if b.r.Date != "" {
+		right += " · " + b.r.Date
+	}
+	esc := func(s string) string { return strings.ReplaceAll(s, "&", "&&") }
+	return `&L&8` + esc(string(plant)) + `&C&8&A · page &P of &N&R&8` + esc(right)
+}
+
+// version is the Report's version, or "devel".
+func (b *book) version() string {
+	if b.r.Version != "" {
+		return b.r.Version
+	}
+	return "devel"
 }

@@ -28,11 +28,24 @@ func build(r *Report) (*excelize.File, []FormulaCell, error) {
 	b.economicsSheet()
 	b.stagingSheet()
 	curves := b.curvesSheet()
+	measured := b.measuredSheet()
 	b.loadPointsSheet()
 	b.inputsSheet()
-	charts := b.charts()
-	refs := b.curveDataSheet(charts)
-	b.placeCharts(curves, charts, refs)
+	charts := b.curvesCharts()
+	data := make([]*placed, 0, len(charts)+1)
+	for i := range charts {
+		data = append(data, &charts[i])
+	}
+	var meas *placed
+	if measured != nil && len(r.Curves.Measured.Series) > 0 {
+		meas = &placed{scatter: &r.Curves.Measured}
+		data = append(data, meas)
+	}
+	b.curveDataSheet(data)
+	b.placeCharts(curves, charts)
+	if measured != nil {
+		b.placeMeasured(measured, meas)
+	}
 	b.docProps()
 	if b.err != nil {
 		_ = f.Close()
@@ -110,9 +123,7 @@ func checkReport(r *Report) error {
 			}
 		}
 	}
-	charts := append(append([]Chart{}, r.Curves.Head...), r.Curves.Efficiency...)
-	charts = append(charts, r.Curves.GroupPower)
-	for _, c := range charts {
+	for _, c := range r.Curves.scatterCharts() {
 		for _, s := range c.Series {
 			if len(s.X) != len(s.Y) {
 				return fmt.Errorf("%w: chart %q: series %q has %d x and %d y values", ErrInvalidReport, c.Title, s.Name, len(s.X), len(s.Y))
@@ -124,7 +135,25 @@ func checkReport(r *Report) error {
 			}
 		}
 	}
+	for _, bars := range []Bars{r.Curves.Hours, r.Curves.Energy} {
+		for _, se := range bars.Series {
+			if len(se.Values) != len(bars.Categories) {
+				return fmt.Errorf("%w: chart %q: series %q has %d values for %d categories", ErrInvalidReport, bars.Title, se.Name, len(se.Values), len(bars.Categories))
+			}
+		}
+	}
+	switch strings.ToLower(r.Paper) {
+	case "", "a4", "letter":
+	default:
+		return fmt.Errorf("%w: paper %q: want A4 or Letter", ErrInvalidReport, r.Paper)
+	}
 	return nil
+}
+
+// scatterCharts lists every scatter chart of the report.
+func (c *Curves) scatterCharts() []Chart {
+	out := append(append([]Chart{}, c.Head...), c.Efficiency...)
+	return append(out, c.GroupPower, c.Parallel, c.CountPower, c.Bands, c.Measured)
 }
 
 // Formulas returns every formula cell of the workbook r gives, with the

@@ -17,18 +17,34 @@
 //     savings, payback, NPV, emissions, hours unmet), the recommended
 //     staging, the checks, the savings range, the assumptions and notes.
 //   - Economics: the named inputs (EnergyPrice, DemandCharge, DriveCost,
-//     OtherCost, LifeYears, DiscountRate, Escalation, EmissionsFactor) and
-//     a strategy table computed from them by formula.
-//   - Staging: stage-up and stage-down setpoints with delays, settings and
-//     the sequence of operation.
-//   - Curves: native charts: head at several speeds with the system curve,
-//     efficiency against flow, group input against plant flow per strategy,
-//     annual energy per strategy.
+//     OtherCost, LifeYears, DiscountRate, Escalation, EmissionsFactor),
+//     a strategy table computed from them by formula, and on a second page
+//     the retrofit's discounted cash flow by formula with its chart and the
+//     discounted payback ([CashFlow]).
+//   - Staging: stage-up and stage-down setpoints with delays, the settings
+//     they were derived with (a record, not inputs) and the sequence of
+//     operation.
+//   - Curves: native charts, four to a printed page: each model's
+//     operating points on its curves (head at maximum and minimum speed,
+//     system curves, BEP, preferred-region edges, minimum flow, runout)
+//     beside its efficiency; the stages in parallel (mixed plants); input
+//     by number of running units with crossovers and stage changes; the
+//     staging bands; group input per strategy; annual energy; hours and
+//     energy per load step.
+//   - Measured (with a trend): the trend's coverage, the calibration
+//     figures and logged against predicted power with the 1:1 line.
 //   - Load points: every bin under every strategy, with per-unit speeds,
 //     flows and efficiencies, and totals per strategy by formula.
 //   - Inputs: pump models, fitted coefficients and residuals, motors,
 //     drives, system, fluid and tariff.
 //   - Curve data: the tables the charts read.
+//
+// # Printing
+//
+// Every sheet is set up for A4 or US Letter ([Report].Paper), one page
+// wide, with a footer carrying the plant, the sheet, page x of y, the
+// program's version and the report date. Every scatter chart's axes are
+// fixed to a rounded range around its data.
 //
 // # Economics
 //

@@ -6,13 +6,3 @@ package workbook
 
 // SampleReport is the invented demo report of sample_test.go.
 var SampleReport = sampleReport
-
-// Sheet names, as the tests check them.
-const (
-	SheetSummary    = sheetSummary
-	SheetEconomics  = sheetEconomics
-	SheetStaging    = sheetStaging
-	SheetCurves     = sheetCurves
-	SheetLoadPoints = sheetLoadPoints
-	SheetInputs     = sheetInputs
-)

@@ -7,13 +7,16 @@ import (
 
 	"wattstage/workbook"
 	"wattstage/workbook/officecheck"
+
+	"github.com/xuri/excelize/v2"
 )
 
 // TestRenderSummaryAndCurves prints the workbook to PDF through LibreOffice
 // and to PNG through pdftoppm, for a person to look at, and checks what a
 // machine can: the Summary and Curves pages exist, their text (cautions,
-// strategies, chart and axis titles) is on the page, no number shows as
-// ### (a column too narrow), and the Curves sheet fits one page.
+// strategies, chart and axis titles) is on the page, every page has its
+// footer, no number shows as ### (a column too narrow), no one-line text
+// is cut at a cell edge, and the Curves sheet prints four charts a page.
 //
 // Set WORKBOOK_RENDER_DIR to keep the PDF and PNGs there.
 func TestRenderSummaryAndCurves(t *testing.T) {
@@ -51,7 +54,15 @@ func TestRenderSummaryAndCurves(t *testing.T) {
 	}
 
 	ci := find("Curves: ")
-	curves := strings.Join(strings.Fields(pages[ci]), " ")
+	f, err := excelize.OpenFile(file)
+	if err != nil {
+		t.Fatal(err)
+	}
+	names := f.GetSheetList()
+	_ = f.Close()
+	sheets := rd.SheetPages(t, names, r.Plant, "wattstage devel · "+r.Date)
+	rd.CheckCellText(t, file, sheets)
+	curves := rd.SheetText(sheets[workbook.SheetCurves])
 	var wantText []string
 	for _, c := range append(append(r.Curves.Head, r.Curves.Efficiency...), r.Curves.GroupPower) {
 		wantText = append(wantText, c.Title, c.XLabel, c.YLabel)
@@ -59,11 +70,12 @@ func TestRenderSummaryAndCurves(t *testing.T) {
 	wantText = append(wantText, "Annual energy by strategy", "Annual energy (kWh/yr)", "85,940")
 	for _, want := range wantText {
 		if !strings.Contains(curves, want) {
-			t.Errorf("Curves page lacks %q: a chart did not render", want)
+			t.Errorf("Curves pages lack %q: a chart did not render", want)
 		}
 	}
-	if ci+1 < len(pages) && !strings.HasPrefix(strings.TrimSpace(pages[ci+1]), "Load points: ") {
-		t.Errorf("the Curves sheet runs onto a second page: %.80q", pages[ci+1])
+	// Four charts to a page: the sample's five charts take two.
+	if n := len(sheets[workbook.SheetCurves]); n != 2 {
+		t.Errorf("the Curves sheet prints on %d pages, want 2 for its five charts", n)
 	}
 
 	for _, pg := range []struct {

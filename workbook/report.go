@@ -11,7 +11,12 @@ type Report struct {
 	Plant    string // plant name, used in titles; required
 	Subtitle string // one line under the title, e.g. "Chilled-water secondary pumps"; optional
 	Date     string // report date as the user should see it, e.g. "2025-03-14"; also stored as the document date. Empty = no date shown, fixed document date
-	Units    Units  // unit labels for every quantity
+	Version  string // version of the program that wrote the workbook, shown in every page footer; empty = "devel"
+	// Paper is the paper every sheet is set up to print on: "A4" or
+	// "Letter". Empty = Letter for US units, A4 otherwise. Every sheet is
+	// laid out to print cleanly on either.
+	Paper string
+	Units Units // unit labels for every quantity
 
 	Cautions    []string // safety and responsibility cautions shown at the top of the Summary; required (the caller owns their wording)
 	Assumptions []string // every default or assumption that was used, in plain words
@@ -35,6 +40,23 @@ type Report struct {
 	Staging    Staging
 	Curves     Curves
 	Economics  EconomicsInputs
+
+	// CashFlow is the name of the strategy whose retrofit cash flow the
+	// Economics sheet tabulates by formula and charts (cumulative
+	// discounted cash flow with the payback year); empty = none.
+	CashFlow string
+	// Trend is the trend log's coverage and the calibration of predicted
+	// against logged power, shown on the Measured sheet; nil when the
+	// profile is not a trend (no Measured sheet).
+	Trend *TrendRecord
+}
+
+// TrendRecord is what the workbook says about a trend log: how much of its
+// span it covers, and how the predicted power compares with the logged.
+type TrendRecord struct {
+	Coverage    []Quantity // rows kept and dropped, period, hours covered, logging interval, gaps…
+	Calibration []Quantity // comparison figures (intervals, mean logged, NMBE, CV(RMSE), limits); empty without logged power
+	Verdict     string     // one sentence on the calibration; empty without logged power
 }
 
 // Units holds the display labels of each quantity, e.g. US: "gpm", "ft",
@@ -207,25 +229,65 @@ type StagingRow struct {
 	Note      string
 }
 
-// Curves are the data behind the charts. A NaN in Y leaves a gap.
+// Curves are the data behind the charts. A NaN in Y leaves a gap. A chart
+// with no series is left out.
 type Curves struct {
-	Head       []Chart // one per pump model: head at several speeds and the system curve
+	Head       []Chart // one per pump model: the operating points on its curves with the system curve
 	Efficiency []Chart // pump efficiency vs flow, one chart per model or one for all
 	GroupPower Chart   // group electrical input vs plant flow, one series per strategy
+	Parallel   Chart   // full-speed curve of each stage's units in parallel, against plant flow (mixed plants)
+	CountPower Chart   // group input per number of running units, with crossovers and stage changes marked
+	Bands      Chart   // the flow range of each stage, with the stage-up and stage-down flows
+	Hours      Bars    // hours a year per flow bin
+	Energy     Bars    // energy a year per flow bin, by strategy
+	Measured   Chart   // logged against predicted power with the 1:1 line; shown on the Measured sheet
 }
 
-// Chart is one scatter chart with lines.
+// Chart is one scatter chart. Its axes run from a rounded value at or
+// below its data's least to one at or above its greatest (from 0 when the
+// data are not negative).
 type Chart struct {
-	Title  string
-	XLabel string // axis title with unit, e.g. "Flow (gpm)"
-	YLabel string
-	Series []Series
+	Title   string
+	XLabel  string // axis title with unit, e.g. "Flow (gpm)"
+	YLabel  string
+	Series  []Series
+	Markers bool // mark every point of the Line and Dashed series (results at discrete loads rather than smooth curves)
+	// YStep is the spacing of the value axis's labels; 0 = automatic. A
+	// count axis (units running) uses 1.
+	YStep float64
 }
 
 // Series is one line of a chart: X and Y of the same length.
 type Series struct {
-	Name string
-	X, Y []float64
+	Name  string
+	X, Y  []float64
+	Style SeriesStyle
+}
+
+// SeriesStyle is how a series is drawn.
+type SeriesStyle int
+
+const (
+	StyleLine   SeriesStyle = iota // solid line (dashed when the name says it is a system or control curve)
+	StyleDashed                    // dashed line: a system curve, a limit
+	StylePoints                    // markers only: operating points, the BEP, crossovers
+	StyleBand                      // a thick bar: a range of flow
+	StyleGuide                     // thin dotted line: a reference such as the 1:1 line or a region's edge
+)
+
+// Bars is a column chart: one column per category in each series.
+type Bars struct {
+	Title      string
+	XLabel     string   // axis title of the categories, with unit
+	YLabel     string   // value axis title with unit
+	Categories []string // e.g. the flow of each bin
+	Series     []BarSeries
+}
+
+// BarSeries is one set of columns, a value per category (NaN = none).
+type BarSeries struct {
+	Name   string
+	Values []float64
 }
 
 // EconomicsInputs are the live inputs of the Economics sheet, each written to

@@ -134,6 +134,7 @@ func (b *book) economicsSheet() {
 	for c := 2; c <= last; c++ {
 		s.fixed[c] = 16
 	}
+	row = b.cashFlowSection(s, row+2, last)
 	b.pageSetup(s, false, last, row)
 	s.finish()
 }

@@ -101,6 +101,12 @@ func (b *book) inputsSheet() {
 		row += 2
 	}
 
+	// The motors, drives, system, fluid and tariff begin a page of their
+	// own: the pump curves fill the first, and a section title must not
+	// be left at the foot of a page without its rows.
+	if len(r.Pumps) > 0 {
+		b.fail(b.f.InsertPageBreak(s.name, cellName(1, row)))
+	}
 	s.text(1, row, "Motors", "h2")
 	row++
 	if len(r.Motors) == 0 {
@@ -134,7 +140,7 @@ func (b *book) inputsSheet() {
 		for _, d := range r.Drives {
 			row++
 			s.text(1, row, d.Unit, "bold")
-			s.text(2, row, d.Kind, "text")
+			s.wrapped(2, row, d.Kind, "wrap")
 			s.number(3, row, zeroAsGap(d.MinSpeed), "d1")
 			s.number(4, row, zeroAsGap(d.MaxSpeed), "d1")
 			s.wrapped(5, row, d.LossModel, "wrap")

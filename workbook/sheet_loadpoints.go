@@ -50,12 +50,12 @@ func (b *book) loadPointsSheet() {
 		s.number(5, row, lp.Head, "d1")
 		s.number(lpHoursCol, row, lp.Hours, "int")
 		s.number(7, row, float64(lp.UnitsRunning), "int")
-		s.text(8, row, lp.Running, "text")
+		s.wrapped(8, row, lp.Running, "wrap")
 		s.number(9, row, lp.KW, "d2")
 		s.number(lpKWhCol, row, lp.KWh, "int")
 		s.number(lpCostCol, row, lp.Cost, "int")
-		s.text(12, row, lp.Binding, "text")
-		s.text(13, row, lp.Flags, "text")
+		s.wrapped(12, row, lp.Binding, "wrap")
+		s.wrapped(13, row, lp.Flags, "wrap")
 		for k, up := range lp.Units {
 			c := lpGroup + 1 + k*lpUnitCols
 			s.text(c, row, up.Unit, "bold")
@@ -71,11 +71,14 @@ func (b *book) loadPointsSheet() {
 	first, end := lpHeader+1, max(row, lpHeader+1)
 
 	// Totals per strategy by formula, so a reader can check them against the
-	// annual figures on the Economics sheet.
+	// annual figures on the Economics sheet; each total sits in the column
+	// of the figures it adds, under a header of its own.
 	row += 2
 	s.text(1, row, "Totals by strategy", "h2")
 	row++
-	s.header(row, 1, "Strategy", "Hours (h/yr)", "Energy (kWh/yr)", "Cost at stated tariff ("+cur+"/yr)")
+	s.header(row, 2, "Strategy")
+	s.header(row, lpHoursCol, "Hours (h/yr)")
+	s.header(row, lpKWhCol, "Energy (kWh/yr)", "Cost at stated tariff ("+cur+"/yr)")
 	for _, st := range r.Strategies {
 		row++
 		var hours, kwh, cost float64
@@ -86,23 +89,23 @@ func (b *book) loadPointsSheet() {
 				cost += lp.Cost
 			}
 		}
-		s.text(1, row, st.Name, "bold")
+		s.text(2, row, st.Name, "bold")
 		// SUMPRODUCT of an exact comparison rather than SUMIF, whose
 		// criteria would read * ? ~ < > = in a strategy name as operators.
 		sumif := func(col int) string {
-			return fmt.Sprintf("SUMPRODUCT((%s:%s=%s)*%s:%s)", absCell(2, first), absCell(2, end), cellName(1, row),
+			return fmt.Sprintf("SUMPRODUCT((%s:%s=%s)*%s:%s)", absCell(2, first), absCell(2, end), cellName(2, row),
 				absCell(col, first), absCell(col, end))
 		}
-		s.formula(2, row, sumif(lpHoursCol), num(hours), "int")
-		s.formula(3, row, sumif(lpKWhCol), num(kwh), "int")
-		s.formula(4, row, sumif(lpCostCol), num(cost), "int")
+		s.formula(lpHoursCol, row, sumif(lpHoursCol), num(hours), "int")
+		s.formula(lpKWhCol, row, sumif(lpKWhCol), num(kwh), "int")
+		s.formula(lpCostCol, row, sumif(lpCostCol), num(cost), "int")
 	}
 	for c := 3; c <= last; c++ {
 		s.fixed[c] = 11
 	}
-	delete(s.fixed, 8) // text columns are fitted to their content
-	delete(s.fixed, 12)
-	delete(s.fixed, 13)
+	// Text columns wrap in widths of their own: a long list of running
+	// units or flags grows its row instead of being cut at the cell edge.
+	s.fixed[8], s.fixed[12], s.fixed[13] = 44, 16, 40
 	b.freeze(s, 3, lpHeader+1)
 	b.printTitles(s, 2, lpHeader)
 	// About 150 character widths fit across a landscape page at full size;

@@ -47,7 +47,9 @@ func (b *book) stagingSheet() {
 	}
 	last := 11
 	row += 2
-	s.text(1, row, "Settings", "h2")
+	s.text(1, row, "Settings the values were derived with", "h2")
+	row++
+	s.merged(row, 1, last, "A record of what was used, not inputs: these cells drive nothing. To derive values with other settings, change them in the plant file and run wattstage again. The band column above does follow the stage-up and stage-down flows if they are edited.", "note_wrap")
 	row = b.quantitiesAt(s, row+1, 1, st.Settings) + 1
 
 	s.text(1, row, "Sequence of operation", "h2")

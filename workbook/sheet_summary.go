@@ -117,6 +117,13 @@ func (b *book) summarySheet() {
 	if rec == "" {
 		rec = "No recommendation given."
 	}
+	if r.Recommendation != "" {
+		when := "by wattstage " + b.version()
+		if r.Date != "" {
+			when = "on " + r.Date + " " + when
+		}
+		rec += " (Written " + when + " from the inputs as given: editing the Economics inputs recalculates the tables and charts, not this sentence.)"
+	}
 	s.merged(row, 1, last, rec+" Setpoints, delays and the sequence of operation are on the Staging sheet.", "wrap")
 	row += 2
 
