@@ -352,12 +352,27 @@ func bandsChart(res *study.Result) workbook.Chart {
 	return ch
 }
 
-// nearEqualBands is the hook for the band of plant flow where two stages
-// draw nearly the same input (where the choice between them is free and
-// the deadband can sit). The study does not derive that band yet, so there
-// is nothing to draw; when it does, each band becomes a StyleBand series
-// here, at the height between the two stages' counts.
-func nearEqualBands(*study.Result) []workbook.Series { return nil }
+// nearEqualBands draws, for each change, the band of plant flow where the
+// two stages draw within optimize.NearEqualTolerance of each other (where
+// the choice between them costs little and a setpoint may move for
+// stability), as a bar halfway between the two stages' counts, at the
+// flows the sequence writes (rounded inward to its resolution).
+func nearEqualBands(res *study.Result) []workbook.Series {
+	sp := res.Setpoints
+	var out []workbook.Series
+	for _, t := range sp.Transitions {
+		if t.Band == nil {
+			continue
+		}
+		lo, hi := sp.BandSetpoints(*t.Band)
+		y := float64(sum(t.Lower)+sum(t.Upper)) / 2
+		out = append(out, workbook.Series{
+			Name: fmt.Sprintf("%d/%d within %.1f %%", sum(t.Lower), sum(t.Upper), 100*optimize.NearEqualTolerance),
+			X:    []float64{lo, hi}, Y: []float64{y, y}, Style: workbook.StyleBand,
+		})
+	}
+	return out
+}
 
 // loadProfile is the hours a year in each load step and the energy a year
 // in each under the baseline and the lowest-power staging, from the load
