@@ -244,7 +244,8 @@ func checks(r *workbook.Report, res *study.Result) {
 		r.Checks = append(r.Checks, workbook.Check{Name: "NPSH available against required", Result: "not made", Detail: c.Note + "; confirm the NPSH margin with the pump manufacturer"})
 	} else if c != nil {
 		u, f, verdict := p.Units, res.Period.Factor, "meets the margin"
-		detail := fmt.Sprintf("NPSHa ≥ %g × NPSHr (NPSHr scaled by speed²) at every point; %s available at design flow; suction: %s", c.Margin, u.FormatHead(c.DesignAvailable), c.Note)
+		npsh := func(h curves.Head) string { return fmt.Sprintf("%.2f %s", u.HeadOut(h), u.HeadUnit()) } // as plan writes it
+		detail := fmt.Sprintf("NPSHa ≥ %g × NPSHr (NPSHr scaled by speed²) at every point; %s available at design flow; suction: %s", c.Margin, npsh(c.DesignAvailable), c.Note)
 		for _, s := range c.Strategies {
 			if s.Key == study.KeyLowest && s.Short > 0 {
 				verdict = fmt.Sprintf("short for %s unit-hours/yr", study.Grouped(s.Short*f))
@@ -255,7 +256,7 @@ func checks(r *workbook.Report, res *study.Result) {
 		}
 		for _, sp := range c.Short {
 			detail += fmt.Sprintf("; short at %s: %s at %.0f %% speed, NPSHa %s, NPSHr %s, %s h/yr", u.FormatFlow(sp.Flow), p.Models[sp.Model].Name,
-				100*sp.Speed, u.FormatHead(sp.Available), u.FormatHead(sp.Required), study.Grouped(sp.Hours*f))
+				100*sp.Speed, npsh(sp.Available), npsh(sp.Required), study.Grouped(sp.Hours*f))
 		}
 		r.Checks = append(r.Checks, workbook.Check{Name: "NPSH available against required (lowest-power staging)", Result: verdict, Detail: detail})
 	}
