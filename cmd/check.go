@@ -170,6 +170,8 @@ func writePlant(out io.Writer, p *plant.Plant) {
 	}
 	t.flush()
 
+	writeSuction(out, p)
+
 	heading(out, "Load profile")
 	switch {
 	case p.Profile.Trend != nil:

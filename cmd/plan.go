@@ -271,6 +271,7 @@ func writeChecks(out io.Writer, r *study.Result) {
 		}
 		fmt.Fprintln(out)
 	}
+	writeNPSHCheck(out, r)
 	if b := r.Binning; b != nil {
 		fmt.Fprintf(out, "- Binning: every interval solved gives %s kWh/yr for the lowest-power staging; %d bins of %s give %s kWh/yr (%+.2f %%; the cube-law estimate of the binning error is %.2f %%)\n",
 			study.Grouped(b.EveryKWh), b.Bins, u.FormatFlow(b.Width), study.Grouped(b.BinnedKWh), 100*(b.BinnedKWh/b.EveryKWh-1), 100*b.CubeError)

@@ -104,6 +104,7 @@ func pointRun(opts *PointOptions) error {
 		return writeJSON(opts.IO.Out, pointJSON(p, best, byCount))
 	}
 	writePoint(opts.IO.Out, p, best, byCount, opts.Units > 0)
+	writeNPSHPoint(opts.IO.Out, p, best)
 	writeCommonComparison(opts.IO.Out, p, best, common)
 	writeCautions(opts.IO.Out)
 	return nil

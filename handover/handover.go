@@ -245,6 +245,26 @@ func checks(r *workbook.Report, res *study.Result) {
 			Detail: fmt.Sprintf("the remaining units deliver at most %s (%.0f %% of design) at %s; motor loads %s",
 				u.FormatFlow(uo.MaxFlow), 100*float64(uo.MaxFlow/p.DesignFlow), u.FormatHead(uo.AtMax.HeaderHead), strings.Join(loads, ", "))})
 	}
+	if c := res.NPSH; c != nil && !c.Made {
+		r.Checks = append(r.Checks, workbook.Check{Name: "NPSH available against required", Result: "not made", Detail: c.Note + "; confirm the NPSH margin with the pump manufacturer"})
+	} else if c != nil {
+		u, f, verdict := p.Units, res.Period.Factor, "meets the margin"
+		npsh := func(h curves.Head) string { return fmt.Sprintf("%.2f %s", u.HeadOut(h), u.HeadUnit()) } // as plan writes it
+		detail := fmt.Sprintf("NPSHa ≥ %g × NPSHr (NPSHr scaled by speed²) at every point; %s available at design flow; suction: %s", c.Margin, npsh(c.DesignAvailable), c.Note)
+		for _, s := range c.Strategies {
+			if s.Key == study.KeyLowest && s.Short > 0 {
+				verdict = fmt.Sprintf("short for %s unit-hours/yr", study.Grouped(s.Short*f))
+			}
+			if s.Key == study.KeyLowest || s.Short > 0 {
+				detail += fmt.Sprintf("; %s: lowest NPSHa/NPSHr %.2f, %s unit-hours/yr below the margin", s.Name, s.LowestRatio, study.Grouped(s.Short*f))
+			}
+		}
+		for _, sp := range c.Short {
+			detail += fmt.Sprintf("; short at %s: %s at %.0f %% speed, NPSHa %s, NPSHr %s, %s h/yr", u.FormatFlow(sp.Flow), p.Models[sp.Model].Name,
+				100*sp.Speed, npsh(sp.Available), npsh(sp.Required), study.Grouped(sp.Hours*f))
+		}
+		r.Checks = append(r.Checks, workbook.Check{Name: "NPSH available against required (lowest-power staging)", Result: verdict, Detail: detail})
+	}
 	if c := res.Calibration; c != nil {
 		verdict := "within the hourly criteria"
 		if !c.Calibrated() {

@@ -502,6 +502,16 @@ func (d *decoder) flow(n *yaml.Node, path, pctOf string) (flowValue, bool) {
 // head reads a head in ft (US) or m (SI); a pressure suffix (psi in US, kPa
 // in SI) is converted with the fluid's density: h = p / (ρ g).
 func (d *decoder) head(n *yaml.Node, path string) (curves.Head, bool) {
+	return d.headOf(n, path, false)
+}
+
+// signedHead reads a head as head does, accepting a negative value (a
+// suction lift).
+func (d *decoder) signedHead(n *yaml.Node, path string) (curves.Head, bool) {
+	return d.headOf(n, path, true)
+}
+
+func (d *decoder) headOf(n *yaml.Node, path string, signed bool) (curves.Head, bool) {
 	units := []string{"m", "kPa"}
 	hint := "a head in m, or a pressure in kPa"
 	switch {
@@ -517,7 +527,7 @@ func (d *decoder) head(n *yaml.Node, path string) (curves.Head, bool) {
 	if !ok {
 		return 0, false
 	}
-	if v < 0 {
+	if v < 0 && !signed {
 		d.errorf(n, path, "%s: a head must not be negative", n.Value)
 		return 0, false
 	}
@@ -532,7 +542,7 @@ func (d *decoder) head(n *yaml.Node, path string) (curves.Head, bool) {
 	default:
 		h = d.units.HeadIn(v)
 	}
-	if h > MaxHead {
+	if h > MaxHead || -h > MaxHead {
 		d.errorf(n, path, "%s is above %s, the largest head accepted (check the unit)", n.Value, d.fmtHead(MaxHead))
 		return 0, false
 	}

@@ -57,6 +57,10 @@
 //	        - {load: 25%, efficiency: 90}
 //	        - {load: 100%, efficiency: 96}
 //	    branch_loss: {head: 3, flow: 1000}   # optional: head lost in the unit's own piping
+//	    npshr:                           # optional: NPSH required (NPSH3) at rated speed, for the
+//	      - {flow: 400,  npshr: 9}       # NPSH check: flow and NPSHr (ft or m), rising flow,
+//	      - {flow: 1000, npshr: 14}      # at least two points
+//	      - {flow: 1400, npshr: 21}
 //
 //	system:
 //	  design_flow: 3000                  # plant flow at design
@@ -72,6 +76,17 @@
 //	  #   static_head: 12
 //	  plant_min_flow: 600                # optional: chiller/boiler minimum held by a bypass
 //	  bypass_at: plant                   # optional: plant (default) or loop_end
+//
+//	suction:                             # optional: the suction side, for the NPSH check
+//	  static_head: 6                     # level of the tank (or of the point where the pressure
+//	                                     # is given) above the impeller eye; negative: a lift
+//	  loss: {head: 2, flow: 3000}        # friction from there to the suction at a plant flow
+//	                                     # (default the design flow), scaling with flow²; default 0
+//	  altitude: 650                      # ft (US) or m (SI): an open tank at the standard
+//	                                     # atmosphere's pressure there (ISO 2533); default sea level
+//	  # absolute_pressure: 30 psi        # or a closed system: the absolute pressure at that level,
+//	  # gauge_pressure: 12 psi           # or gauge, above the atmosphere at altitude (psi or kPa)
+//	  margin: 1.3                        # NPSHa/NPSHr asked for at every point; default 1.3
 //
 //	profile:                             # bins, or a trend
 //	  bins:
@@ -171,6 +186,25 @@
 // make the head the system needs at the pumped flow. The default is listed
 // among the plant's defaults when a minimum flow is given.
 //
+// # NPSH
+//
+// With pumps[].npshr and a suction section, every operating point is checked
+// for cavitation margin. NPSH available at the pump suction is
+//
+//	NPSHa = (p_abs − p_v) / (ρ g) + static_head − loss × (Q / loss.flow)²
+//
+// with p_abs the standard atmosphere at the altitude (open tank; ICAO/ISO
+// barometric formula), or the closed system's pressure (absolute, or gauge
+// plus that atmosphere), p_v the vapour pressure of water at
+// fluid.temperature (IAPWS-IF97 equation 30; for a glycol or brine, water's,
+// which is higher than the mixture's: cautious), and Q the plant's pumped
+// flow through the suction. NPSH required is read off the npshr points,
+// linearly between them, and scaled by the affinity laws to the unit's
+// speed: s² · NPSHr₀(Q/s). A point falls short where NPSHa < margin ×
+// NPSHr; the default margin 1.3 lies inside the ratios of about 1.1 to 1.5 or
+// more that the Hydraulic Institute's guideline ANSI/HI 9.6.1 recommends by
+// application and suction energy (from memory): give the one for the pump.
+//
 // # Drives
 //
 // drive: fixed is a motor started across the line: no drive losses, no
@@ -228,6 +262,7 @@
 //	pumps[].curve[].efficiency              above 1 % and below 100 % (100 % has no losses:
 //	                                        no real pump, and the loss models divide by them)
 //	pumps[].min_speed, max_speed            above 0, max_speed at most 150 %
+//	pumps[].npshr                           2 to 100 points, rising flow, NPSHr above zero
 //	pumps[].motor.full_load_efficiency      50 % to below 100 %
 //	pumps[].motor.service_factor            1.0 to 1.5
 //	pumps[].motor.part_load, drive tables   2 to 100 rows; efficiencies as above
@@ -236,6 +271,10 @@
 //	any power (motor rating, shaft power)   above 0 to 1 GW (1.34 million hp)
 //	fluid.temperature                       water 0–150 °C (Kell 1975); with specific_gravity −60–150 °C
 //	fluid.specific_gravity                  0.5 to 2
+//	suction.altitude                        −500 to 5000 m (−1640 to 16404 ft)
+//	suction.absolute_pressure               above 0 to 10 MPa (1450 psi); gauge_pressure down
+//	                                        to a perfect vacuum
+//	suction.margin                          1 to 5 (NPSHa/NPSHr)
 //	profile.bins                            1 to 10000 bins, hours above 0, at most 8784 h in all
 //	profile.annual_hours                    above 0, at most 8784 h
 //	profile.trend.interval                  above 0, at most a day
@@ -275,7 +314,11 @@
 // words with its source (e.g. the motor efficiency from the NEMA Premium
 // table), so reports can flag it. Plant.Warnings lists what is usable but
 // questionable, such as a motor running into its service factor at the
-// design head or a unit that cannot reach the design head; each [Warning]
+// design head, a unit that cannot reach the design head, a shutoff shaft
+// power more than 5 % from the fitted one (the efficiency fit passes
+// through zero at zero flow and cannot use it), or a fitted best
+// efficiency point more than 10 % in flow from the datasheet point of
+// highest efficiency; each [Warning]
 // points at the value it is about (file, line, column and field path), as
 // an [Error] does.
 //

@@ -25,7 +25,7 @@ import (
 const MaxFileSize = 4 << 20
 
 // topKeys are the keys of a plant file, in the order they are documented.
-var topKeys = []string{"name", "description", "units", "fluid", "pumps", "system", "profile", "tariff", "retrofit", "sequence"}
+var topKeys = []string{"name", "description", "units", "fluid", "pumps", "system", "profile", "tariff", "retrofit", "sequence", "suction"}
 
 // Load reads and checks the plant file at path. Relative paths inside the
 // file (the trend log) are resolved against the file's folder. Every
@@ -294,6 +294,9 @@ func (d *decoder) plant(root *yaml.Node) *Plant {
 	}
 	if n := d.value(top, "sequence"); n != nil {
 		p.Sequence = d.staging(n, specs, sys)
+	}
+	if n := d.value(top, "suction"); n != nil {
+		p.Suction = d.suction(n, sys, p.Fluid)
 	}
 	for _, s := range specs {
 		if s != nil {

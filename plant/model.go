@@ -34,7 +34,10 @@ type Plant struct {
 	// the zero value otherwise).
 	HasRetrofit bool
 	Sequence    *Sequence // the sequence the plant runs today; nil when not given
-	DPSensor    string    // where the differential-pressure sensor is, in the file's words; "" = not given
+	// Suction is where the pumps draw from, for the NPSH check; nil when
+	// the file has no suction section.
+	Suction  *Suction
+	DPSensor string // where the differential-pressure sensor is, in the file's words; "" = not given
 
 	// Defaults lists, in plain words, every value the loader filled in because
 	// the file did not give it (e.g. "pumps[0].motor.full_load_efficiency:
@@ -74,6 +77,25 @@ type Model struct {
 	// less (near full speed the drive's own losses can exceed what speed
 	// control saves). False in the zero value.
 	DriveBypass bool
+	// NPSHr is the NPSH the pump requires against flow at rated speed, from
+	// the datasheet; nil when the file gives none (no NPSH check).
+	NPSHr *curves.NPSHCurve
+}
+
+// Suction is the suction side of the group, shared by every unit: the
+// conditions of NPSH available and the margin the check asks for.
+type Suction struct {
+	// Suction holds the absolute pressure at the reference level, its
+	// static head above the impeller eye, the suction loss at a plant flow,
+	// and the fluid's vapour pressure and density, SI.
+	curves.Suction
+	// Margin is the NPSHa/NPSHr ratio the check asks for at every
+	// operating point; DefaultNPSHMargin when the file is silent.
+	Margin float64
+	// Basis says in plain words where the absolute pressure comes from
+	// (the standard atmosphere at an altitude, or a closed system's
+	// pressure), for the reports.
+	Basis string
 }
 
 // Variable reports whether the model's units run on a variable-speed drive.

@@ -41,7 +41,7 @@ const (
 )
 
 var pumpKeys = []string{"name", "count", "rated_speed", "curve", "head_fit", "allow_rising", "speed_correction",
-	"min_speed", "max_speed", "min_flow", "runout", "motor", "drive", "branch_loss", "tags", "standby", "drive_bypass"}
+	"min_speed", "max_speed", "min_flow", "runout", "motor", "drive", "branch_loss", "tags", "standby", "drive_bypass", "npshr"}
 
 // pumpSpec is a pump model while it is being read: the model and what is
 // still needed to finish it once the system is known.
@@ -169,6 +169,9 @@ func (d *decoder) pump(n *yaml.Node, path string) *pumpSpec {
 	if v := d.value(f, "branch_loss"); v != nil {
 		s.branch = d.branchLoss(v, join(path, "branch_loss"))
 	}
+	if v := d.value(f, "npshr"); v != nil {
+		m.NPSHr = d.npshr(v, join(path, "npshr"))
+	}
 	return s
 }
 
@@ -285,6 +288,7 @@ func (d *decoder) curve(s *pumpSpec) {
 		return
 	}
 	s.model.Pump = pump
+	d.checkDatasheet(s)
 }
 
 // flatCurve reports whether every point has the same head.

@@ -8,15 +8,16 @@ import (
 
 // warnBase is minimal-us.yaml with placeholders (filled by fill) for the
 // values a warning is about. With the defaults the plant warns of nothing.
-// When part_load, runout and reset are empty, rated_output is on line 13,
+// When part_load, runout and reset are empty, the shutoff point is on line
+// 6, rated_output on line 13,
 // design_flow on line 16 and the second bin on line 23.
 const warnBase = `units: US
 pumps:
   - name: HWP
     rated_speed: 1770
     curve:
-      - {flow: 0, head: 80}
-      - {flow: 200, head: 77, efficiency: 55}
+      - {flow: 0, head: 80{shutoff}}
+      - {flow: 200, head: 77, efficiency: {e200}}
       - {flow: 400, head: 70, efficiency: 74}
       - {flow: 600, head: 59, efficiency: 80}
       - {flow: 700, head: 52, efficiency: 78}
@@ -40,6 +41,7 @@ tariff:
 
 var warnDefaults = map[string]string{
 	"rated": "25", "part_load": "", "runout": "", "design_flow": "600", "reset": "", "bin": "90%",
+	"shutoff": "", "e200": "52",
 }
 
 func warnPlant(kv map[string]string) string {
@@ -76,6 +78,14 @@ func TestWarningPositions(t *testing.T) {
 			15, 9, "pumps[0].motor.part_load", "the motor table only splits the combined motor-and-drive loss"},
 		{"capacity short of the design flow", map[string]string{"design_flow": "900"},
 			16, 16, "system.design_flow", "short of the design flow 900 gpm"},
+		// The base curve's efficiency fit gives 6.02 hp at zero flow (a
+		// test input's fit, not a published value); 4.5 hp is 34 % off.
+		{"shutoff shaft power the fit ignores", map[string]string{"shutoff": ", shaft_power: 4.5"},
+			6, 42, "pumps[0].curve[0].shaft_power", "the shutoff shaft power 4.5 hp is not used by the efficiency fit"},
+		// 55 % at 200 gpm pulls the fitted peak to 538.7 gpm, 10.2 % below
+		// the datasheet's best point (600 gpm, 80 %).
+		{"fitted BEP away from the datasheet's best point", map[string]string{"e200": "55"},
+			6, 7, "pumps[0].curve", "(538.7 gpm, 79.96 %) is 10.2 % below the datasheet's best point (600 gpm, 80 %, curve[3])"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -104,6 +114,19 @@ func TestWarningPositions(t *testing.T) {
 // above tests one warning.
 func TestWarningsClean(t *testing.T) {
 	p, err := Parse("warn.yaml", []byte(warnPlant(nil)), "")
+	if err != nil {
+		t.Fatalf("Parse:\n%v", err)
+	}
+	if len(p.Warnings) > 0 {
+		t.Errorf("warnings %v", p.Warnings)
+	}
+}
+
+// TestDatasheetChecksQuiet: a shutoff shaft power within 5 % of the fitted
+// one (6 hp against the fit's 6.02 hp) and a fitted BEP within 10 % of the
+// datasheet's best point (559 gpm against 600 gpm) warn of nothing.
+func TestDatasheetChecksQuiet(t *testing.T) {
+	p, err := Parse("warn.yaml", []byte(warnPlant(map[string]string{"shutoff": ", shaft_power: 6"})), "")
 	if err != nil {
 		t.Fatalf("Parse:\n%v", err)
 	}

@@ -170,6 +170,42 @@ type JSONChecks struct {
 	Calibration *JSONCalibration `json:"calibration"`
 	Binning     *JSONBinning     `json:"binning"`
 	LoggedDP    *JSONLoggedDP    `json:"logged_dp"`
+	NPSH        JSONNPSH         `json:"npsh"`
+}
+
+// JSONNPSH is the NPSH check.
+type JSONNPSH struct {
+	Made              bool               `json:"made"`
+	Note              string             `json:"note"`
+	MarginRatio       *float64           `json:"margin_ratio"`
+	AvailableAtDesign *float64           `json:"npsh_available_at_design_flow"`
+	NotChecked        []string           `json:"models_not_checked"`
+	Strategies        []JSONNPSHStrategy `json:"strategies"`
+	ShortPoints       []JSONNPSHShort    `json:"short_points"`
+}
+
+// JSONNPSHStrategy is one strategy's unit-hours a year against the margin.
+type JSONNPSHStrategy struct {
+	Strategy     string   `json:"strategy"`
+	UnitHours    float64  `json:"unit_hours"`
+	Short        float64  `json:"short_unit_hours"`
+	Below        float64  `json:"below_npshr_unit_hours"`
+	Extrapolated float64  `json:"extrapolated_unit_hours"`
+	LowestRatio  *float64 `json:"lowest_ratio"`
+}
+
+// JSONNPSHShort is one point of the lowest-power staging below the margin.
+type JSONNPSHShort struct {
+	Flow         float64 `json:"flow"`
+	Model        string  `json:"model"`
+	Units        int     `json:"units_running"`
+	Speed        float64 `json:"speed"`
+	UnitFlow     float64 `json:"unit_flow"`
+	Available    float64 `json:"npsh_available"`
+	Required     float64 `json:"npsh_required"`
+	Ratio        float64 `json:"ratio"`
+	Extrapolated bool    `json:"extrapolated"`
+	Hours        float64 `json:"annual_hours"`
 }
 
 // JSONLoggedDP sets a trend's logged DP against the modelled setpoint.
@@ -368,7 +404,33 @@ func (r *Result) checksJSON() JSONChecks {
 	if b := r.Binning; b != nil {
 		c.Binning = &JSONBinning{Width: u.FlowOut(b.Width), Bins: b.Bins, EveryKWh: b.EveryKWh, BinnedKWh: b.BinnedKWh, CubeError: b.CubeError}
 	}
+	c.NPSH = r.npshJSON()
 	return c
+}
+
+func (r *Result) npshJSON() JSONNPSH {
+	u, f := r.Plant.Units, r.Period.Factor
+	j := JSONNPSH{NotChecked: []string{}, Strategies: []JSONNPSHStrategy{}, ShortPoints: []JSONNPSHShort{}}
+	c := r.NPSH
+	if c == nil {
+		return j
+	}
+	j.Made, j.Note = c.Made, c.Note
+	if !c.Made {
+		return j
+	}
+	j.MarginRatio, j.AvailableAtDesign = finite(c.Margin), finite(u.HeadOut(c.DesignAvailable))
+	j.NotChecked = append(j.NotChecked, c.Unchecked...)
+	for _, s := range c.Strategies {
+		j.Strategies = append(j.Strategies, JSONNPSHStrategy{Strategy: s.Key, UnitHours: s.UnitHours * f, Short: s.Short * f,
+			Below: s.Below * f, Extrapolated: s.Extrapolated * f, LowestRatio: finite(s.LowestRatio)})
+	}
+	for _, p := range c.Short {
+		j.ShortPoints = append(j.ShortPoints, JSONNPSHShort{Flow: u.FlowOut(p.Flow), Model: r.Plant.Models[p.Model].Name, Units: p.Units,
+			Speed: p.Speed, UnitFlow: u.FlowOut(p.UnitFlow), Available: u.HeadOut(p.Available), Required: u.HeadOut(p.Required),
+			Ratio: p.Ratio, Extrapolated: p.Extrapolated, Hours: p.Hours * f})
+	}
+	return j
 }
 
 // WriteJSON writes the document, indented. With detail it writes JSON

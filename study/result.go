@@ -38,6 +38,7 @@ type Result struct {
 	Calibration *Calibration           // predicted against logged power; nil without logged power
 	Binning     *BinningCheck          // a trend solved interval by interval against the same trend binned
 	DP          *DPComparison          // the trend's logged DP against the modelled setpoint; nil without logged DP
+	NPSH        *NPSHCheck             // NPSH available against required at every operating point; Made false without the data
 	GroupPower  []PowerCurve           // each strategy's group input across plant flow, for the chart
 
 	// Chart tables of the workbook's staging pictures (study/chartdata.go).

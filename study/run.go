@@ -196,7 +196,7 @@ func samples(e Energy, steps []optimize.Step) []econ.Sample {
 	return out
 }
 
-// runChecks adds the part-load, one-unit-out, calibration and binning checks.
+// runChecks adds the part-load, one-unit-out, NPSH, calibration and binning checks.
 func (r *Result) runChecks(ks []Keyed) {
 	p := r.Plant
 	_, dpLoop := p.System.(curves.DPControl)
@@ -217,6 +217,7 @@ func (r *Result) runChecks(ks []Keyed) {
 	if uo, err := optimize.CheckUnitOut(p, optimize.Options{}); err == nil {
 		r.UnitOut = &uo
 	}
+	r.NPSH = r.checkNPSH()
 	if r.Trend != nil && r.Trend.HasPower() {
 		s := r.Strategy(KeyCurrent)
 		if s == nil {

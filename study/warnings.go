@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strconv"
+	"strings"
 )
 
 // Sources of warnings that do not come from a file position.
@@ -68,6 +70,17 @@ func (r *Result) gatherWarnings(in *Input) {
 			r.warn(SourceStudy, "%s runs motors above their rated output (into the service factor) for %s unit-hours a year: confirm with the motor manufacturer, and that the drive is sized for the current", s.Name, Grouped(g.Overload*f))
 		}
 	}
+	if c := r.NPSH; c != nil && c.Made {
+		for _, s := range c.Strategies {
+			if s.Short > 0 {
+				r.warn(SourceStudy, "%s runs units with NPSH available below %s × NPSHr for %s unit-hours a year (%s of them below NPSHr itself; lowest ratio %.2f): cavitation risk; raise the suction head or confirm the pump's NPSH3 and margin with its manufacturer",
+					s.Name, fmtRatio(c.Margin), Grouped(s.Short*r.Period.Factor), Grouped(s.Below*r.Period.Factor), s.LowestRatio)
+			}
+		}
+		if len(c.Unchecked) > 0 {
+			r.warn(SourceStudy, "NPSH not checked for %s: the plant file gives no NPSHr points (pumps[].npshr)", joinNames(c.Unchecked))
+		}
+	}
 	if r.SetpointsError != "" {
 		r.warn(SourceSetpoints, "no staging setpoints derived: %s", r.SetpointsError)
 	} else {
@@ -110,4 +123,15 @@ func (r *Result) beatenNotes() {
 				s.Name, hours, 100*worst, cure)
 		}
 	}
+}
+
+// fmtRatio writes a margin ratio with as many decimals as it needs (1.3, 1.25).
+func fmtRatio(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) }
+
+// joinNames lists names: "A", "A and B", "A, B and C".
+func joinNames(names []string) string {
+	if len(names) < 2 {
+		return strings.Join(names, "")
+	}
+	return strings.Join(names[:len(names)-1], ", ") + " and " + names[len(names)-1]
 }
