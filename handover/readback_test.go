@@ -217,8 +217,8 @@ func TestStagingSheetSignal(t *testing.T) {
 		}
 		rb := readBack(t, ex.report)
 		rows := rb.rows("Staging")
-		if len(rows) < 2 || !strings.Contains(strings.Join(rows[1], " "), "Staging signal: "+word+".") {
-			t.Errorf("%s: Staging sheet subtitle %v lacks the signal %q", name, rows[1], word)
+		if len(rows) < 3 || !strings.Contains(strings.Join(rows[2], " "), "Staging signal: "+word+".") {
+			t.Errorf("%s: Staging sheet's third row %v lacks the signal %q", name, rows[2], word)
 		}
 		for i, tr := range sp.Transitions {
 			if sp.Signal == optimize.SpeedBasis {

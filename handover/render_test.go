@@ -22,7 +22,7 @@ import (
 var maxPages = map[string]int{
 	workbook.SheetSummary:    3,
 	workbook.SheetEconomics:  2, // the strategy table, then the cash flow and its chart
-	workbook.SheetStaging:    1,
+	workbook.SheetStaging:    2, // the table, the signal, and a sequence of operation that states the DP loop and each near-equal band
 	workbook.SheetMeasured:   1,
 	workbook.SheetLoadPoints: 20, // the trend example: 7 strategies × 20 flow groups, 4 pages across
 	workbook.SheetInputs:     3,

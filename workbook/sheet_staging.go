@@ -12,11 +12,10 @@ func (b *book) stagingSheet() {
 	u := r.Units
 	st := r.Staging
 	s.text(1, 1, "Staging setpoints: "+r.Plant, "title")
-	sub := "Adjustable starting values for the controls contractor."
+	s.text(1, 2, "Adjustable starting values for the controls contractor.", "subtitle")
 	if st.Signal != "" {
-		sub += " Staging signal: " + st.Signal + ". " + st.SignalRule
+		s.merged(3, 1, 11, "Staging signal: "+st.Signal+". "+st.SignalRule, "wrap")
 	}
-	s.text(1, 2, sub, "subtitle")
 	s.header(stagingHeader, 1, "From (units running)", "To (units running)", "Units added",
 		"Stage up: speed above (%)", "Stage up: flow above ("+u.Flow+")", "Stage up delay (min)",
 		"Stage down: speed below (%)", "Stage down: flow below ("+u.Flow+")", "Stage down delay (min)",
