@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"math"
 	"strings"
+	"wattstage/internal/version"
 
 	"wattstage/curves"
 	"wattstage/plant"
@@ -26,12 +27,13 @@ func Build(res *study.Result) (*workbook.Report, error) {
 		Subtitle: fmt.Sprintf("%s; %s; %d pump model(s), %d units", p.System.Describe(), pumpCount(p), len(p.Models), units(p)),
 		Units: workbook.Units{System: u.String(), Flow: u.FlowUnit(), Head: u.HeadUnit(), MotorPower: u.PowerUnit(),
 			Speed: "rpm", Currency: res.Currency()},
-		Cautions:    res.Cautions,
-		Assumptions: assumptions(res),
-		Baseline:    res.Baseline,
-		Staging:     Staging(res),
-		Version:     Version(),
-		Trend:       trendRecord(res),
+		Cautions:     res.Cautions,
+		Assumptions:  assumptions(res),
+		Baseline:     res.Baseline,
+		Staging:      Staging(res),
+		Version:      version.Short(),
+		InputsSHA256: res.InputsSHA256,
+		Trend:        trendRecord(res),
 	}
 	if lo := res.Strategy(study.KeyLowest); lo != nil && lo.Appraisal != nil {
 		r.CashFlow = lo.Name

@@ -230,3 +230,16 @@ func TestStagingSheetSignal(t *testing.T) {
 		}
 	}
 }
+
+// The workbook names the program's version and the inputs' SHA-256 on the
+// Inputs sheet, as the JSON does, so a reader can tell which files made it.
+func TestWorkbookNamesVersionAndInputs(t *testing.T) {
+	ex := loadExample(t, "chilled-water.yaml")
+	if ex.result.InputsSHA256 == "" || ex.report.InputsSHA256 != ex.result.InputsSHA256 {
+		t.Fatalf("inputs hash %q in the report, %q in the study", ex.report.InputsSHA256, ex.result.InputsSHA256)
+	}
+	rows := readBack(t, ex.report).rows("Inputs")
+	if len(rows) < 3 || !strings.Contains(strings.Join(rows[2], " "), ex.result.InputsSHA256) || !strings.Contains(strings.Join(rows[2], " "), "wattstage") {
+		t.Errorf("Inputs row 3 %v lacks the version and the inputs hash %s", rows[2], ex.result.InputsSHA256)
+	}
+}

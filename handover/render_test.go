@@ -54,7 +54,8 @@ func TestRenderExamples(t *testing.T) {
 					t.Fatal(err)
 				}
 				rd := officecheck.Render(t, file, base, false)
-				sheets := rd.SheetPages(t, sheetNames(t, file), r.Plant, "wattstage v0.0.0-test · 2026-01-15")
+				footer := "wattstage v0.0.0-test · inputs " + r.InputsSHA256[:12] + " · 2026-01-15"
+				sheets := rd.SheetPages(t, sheetNames(t, file), r.Plant, footer)
 				t.Logf("pages: %s", officecheck.Describe(sheets))
 				for sheet, most := range maxPages {
 					if sheet == workbook.SheetMeasured && r.Trend == nil {

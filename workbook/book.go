@@ -504,6 +504,9 @@ func (b *book) footer() string {
 		plant = append(plant[:79], '…')
 	}
 	right := "wattstage " + b.version()
+	if h := b.r.InputsSHA256; len(h) >= 12 {
+		right += " · inputs " + h[:12]
+	}
 	if b.r.Date != "" {
 		right += " · " + b.r.Date
 	}

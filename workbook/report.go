@@ -12,6 +12,10 @@ type Report struct {
 	Subtitle string // one line under the title, e.g. "Chilled-water secondary pumps"; optional
 	Date     string // report date as the user should see it, e.g. "2025-03-14"; also stored as the document date. Empty = no date shown, fixed document date
 	Version  string // version of the program that wrote the workbook, shown in every page footer; empty = "devel"
+	// InputsSHA256 fingerprints the input files (hex SHA-256), shown on the
+	// Inputs sheet and, its first 12 digits, in every page footer; empty =
+	// not shown.
+	InputsSHA256 string
 	// Paper is the paper every sheet is set up to print on: "A4" or
 	// "Letter". Empty = Letter for US units, A4 otherwise. Every sheet is
 	// laid out to print cleanly on either.

@@ -16,7 +16,12 @@ func (b *book) inputsSheet() {
 	u := r.Units
 	s.text(1, 1, "Inputs as understood: "+r.Plant, "title")
 	s.text(1, 2, "Every number the results rest on, with its unit and source; defaults are marked.", "subtitle")
-	row := 4
+	made := "Written by wattstage " + b.version()
+	if r.InputsSHA256 != "" {
+		made += "; SHA-256 of the input files " + r.InputsSHA256
+	}
+	s.text(1, 3, made, "italic")
+	row := 5
 
 	s.text(1, row, "Pump models", "h2")
 	row++
