@@ -102,6 +102,7 @@ func (r *Result) beatenNotes() {
 	if lo == nil {
 		return
 	}
+	var items []string
 	for _, s := range r.Strategies {
 		if s.Key == KeyLowest || s.Key == KeyBypassed || s.Drives >= lo.Drives {
 			continue
@@ -115,14 +116,18 @@ func (r *Result) beatenNotes() {
 			}
 		}
 		if hours > 0 {
-			cure := "a drive bypass (drive_bypass: true) would recover it"
-			if bp := r.Strategy(KeyBypassed); bp != nil {
-				cure = fmt.Sprintf("with the drive bypass the plant draws %s kWh/yr less than the lowest-power staging", Grouped(lo.Annual.Energy-bp.Annual.Energy))
-			}
-			r.warn(SourceStudy, "%s draws less than the lowest-power staging for %.0f h of the period (by up to %.1f %%): near full speed a drive's own losses exceed what speed control saves there; %s",
-				s.Name, hours, 100*worst, cure)
+			items = append(items, fmt.Sprintf("%s, %.0f h of the period, by up to %.1f %%", s.Name, hours, 100*worst))
 		}
 	}
+	if len(items) == 0 {
+		return
+	}
+	cure := "a drive bypass (drive_bypass: true) would recover it"
+	if bp := r.Strategy(KeyBypassed); bp != nil {
+		cure = fmt.Sprintf("with the drive bypass the plant draws %s kWh/yr less than the lowest-power staging", Grouped(lo.Annual.Energy-bp.Annual.Energy))
+	}
+	r.warn(SourceStudy, "near full speed a drive's own losses exceed what speed control saves, so strategies with fewer drives draw less than the lowest-power staging there (%s); %s",
+		strings.Join(items, "; "), cure)
 }
 
 // fmtRatio writes a margin ratio with as many decimals as it needs (1.3, 1.25).
