@@ -94,9 +94,8 @@ type Pump struct {
 	BEPHead         Head        // head at BEP, rated speed
 	BEPEff          float64     // efficiency at BEP
 	SpeedCorrection bool        // Sârbu–Borza applied below rated speed
-	quadratic       bool        // head polynomial of degree 2: closed-form inverses
 	bepAtEdge       bool        // the fitted efficiency peaks at an end of the datasheet range
-	fallLo, fallHi  float64     // falling branch of the cubic head fit at rated speed, m³/s
+	curve           HeadCurve   // the head fit with its inverses and falling branch
 }
 
 // NewPump fits head and efficiency curves to datasheet points (at least 3,
@@ -185,7 +184,7 @@ func NewPump(points []PumpPoint, opt PumpOptions) (*Pump, error) {
 	p := &Pump{
 		head: hp, eff: ep, HeadFit: hst, EffFit: est, Points: pts,
 		FirstFlow: pts[0].Flow, LastFlow: pts[len(pts)-1].Flow,
-		SpeedCorrection: opt.SpeedCorrection, quadratic: deg == 2,
+		SpeedCorrection: opt.SpeedCorrection,
 	}
 	if hp.Eval(0) <= 0 {
 		return nil, ErrShutoffHead
@@ -197,7 +196,7 @@ func NewPump(points []PumpPoint, opt PumpOptions) (*Pump, error) {
 		return nil, err
 	}
 	p.findBEP()
-	p.fallLo, p.fallHi = p.fallingBranch()
+	p.curve = newHeadCurve(hp, float64(p.LastFlow))
 	if p.bepAtEdge {
 		return nil, fmt.Errorf("%w (fitted BEP at %.4g m³/s, points %.4g–%.4g m³/s)",
 			ErrBEPOutsidePoint, float64(p.BEPFlow), float64(p.FirstFlow), float64(p.LastFlow))
@@ -316,7 +315,7 @@ func (p *Pump) ShutoffHead() Head { return Head(p.head.Eval(0)) }
 // shutoff head for a curve that falls from zero flow, the peak for a humped
 // (rising, then falling) one, which lies above its shutoff head. At speed s
 // the highest head is s²·MaxHead (affinity laws).
-func (p *Pump) MaxHead() Head { return Head(p.head.Eval(p.fallLo)) }
+func (p *Pump) MaxHead() Head { return p.curve.MaxHead() }
 
 // Head returns the head at flow q and speed ratio s: s²·H₀(q/s).
 func (p *Pump) Head(q Flow, s float64) Head {
@@ -377,122 +376,12 @@ func (p *Pump) ShaftPower(q Flow, s, density float64) Power {
 }
 
 // SpeedFor returns the speed ratio at which the pump delivers flow q at
-// head h: the root s of s²·H₀(q/s) = h, taken with q/s on the falling
-// branch of the curve where there is one (the branch FlowAt uses). ok is
-// false where no positive speed up to 64× rated does.
-func (p *Pump) SpeedFor(q Flow, h Head) (s float64, ok bool) {
-	if h <= 0 {
-		return 0, false
-	}
-	c := p.head.C
-	x := float64(q) / p.head.Scale
-	if p.quadratic {
-		// a₀ s² + a₁ x s + (a₂ x² − h) = 0
-		a, b, cc := c[0], c[1]*x, c[2]*x*x-float64(h)
-		disc := b*b - 4*a*cc
-		if disc < 0 {
-			return 0, false
-		}
-		s = (-b + math.Sqrt(disc)) / (2 * a)
-		return s, s > 0
-	}
-	// Cubic: in X = q/s, g(X) = (q/X)²·H₀(X) falls with X where the curve
-	// falls, so the root on the falling branch is unique. A bracket in s
-	// alone fails when c₃ > 0, since s²H₀(q/s) → +∞ as s → 0.
-	if q <= 0 {
-		return math.Sqrt(float64(h) / c[0]), true
-	}
-	g := func(x float64) float64 { return float64(h) - float64(q)*float64(q)/(x*x)*p.head.Eval(x) }
-	const maxSpeed = 64
-	lo := math.Max(p.fallLo, float64(q)/maxSpeed)
-	if g(lo) > 0 {
-		// Above the head the pump makes at the top of its falling branch:
-		// the point lies left of a hump, as with a quadratic fit.
-		if lo == float64(q)/maxSpeed || g(float64(q)/maxSpeed) > 0 {
-			return 0, false
-		}
-		return float64(q) / bisect(g, float64(q)/maxSpeed, lo), true
-	}
-	if g(p.fallHi) < 0 {
-		return 0, false // past the end of the falling branch
-	}
-	return float64(q) / bisect(g, lo, p.fallHi), true
-}
+// head h: HeadCurve.SpeedFor on its own curve.
+func (p *Pump) SpeedFor(q Flow, h Head) (s float64, ok bool) { return p.curve.SpeedFor(q, h) }
 
 // FlowAt returns the flow the pump gives at speed s against head h, on the
-// falling branch of its curve: the largest root of s²·H₀(q/s) = h (for a
-// cubic fit, the root between the head peak and the first minimum of the fit
-// or 3× the last datasheet flow). ok is false where the head is above what
-// the pump can make at that speed, or below the end of that branch.
-func (p *Pump) FlowAt(s float64, h Head) (q Flow, ok bool) {
-	if s <= 0 {
-		return 0, false
-	}
-	target := float64(h) / (s * s) // H₀(X) = target with X = q/s
-	c := p.head.C
-	if p.quadratic {
-		a, b, cc := c[2], c[1], c[0]-target
-		if a == 0 {
-			if b >= 0 {
-				return 0, false
-			}
-			x := -cc / b
-			return Flow(x * p.head.Scale * s), x >= 0
-		}
-		disc := b*b - 4*a*cc
-		if disc < 0 {
-			return 0, false
-		}
-		x := (-b - math.Sqrt(disc)) / (2 * a) // larger root since a < 0
-		if a > 0 {
-			x = (-b + math.Sqrt(disc)) / (2 * a)
-		}
-		if x < 0 {
-			return 0, false
-		}
-		return Flow(x * p.head.Scale * s), true
-	}
-	// Cubic: bisect on the falling branch.
-	if target > p.head.Eval(p.fallLo) || target < p.head.Eval(p.fallHi) {
-		return 0, false
-	}
-	g := func(x float64) float64 { return target - p.head.Eval(x) }
-	return Flow(bisect(g, p.fallLo, p.fallHi) * s), true
-}
-
-// fallingBranch returns the rated-speed flows between which the fitted head
-// falls: from the highest head within the datasheet range (zero flow for a
-// curve that never rises) to the first minimum of the fit, or 3× the last
-// datasheet flow, whichever comes first. Past the last point the fit is an
-// extrapolation; a cubic with c₃ > 0 turns up again there.
-func (p *Pump) fallingBranch() (lo, hi float64) {
-	last := float64(p.LastFlow)
-	const n = 400
-	peak, pv := 0.0, p.head.Eval(0)
-	for i := 1; i <= n; i++ {
-		x := last * float64(i) / n
-		if v := p.head.Eval(x); v > pv {
-			peak, pv = x, v
-		}
-	}
-	if peak > 0 {
-		// Refine the interior maximum: H₀' changes sign from + to −.
-		a, b := math.Max(0, peak-last/n), math.Min(last, peak+last/n)
-		if p.head.Deriv(a) > 0 && p.head.Deriv(b) < 0 {
-			peak = bisect(func(x float64) float64 { return -p.head.Deriv(x) }, a, b)
-		}
-	}
-	end := 3 * last
-	step := (end - peak) / n
-	for i := 1; i <= n; i++ {
-		x := peak + step*float64(i)
-		if p.head.Deriv(x) >= 0 {
-			end = bisect(p.head.Deriv, x-step, x)
-			break
-		}
-	}
-	return peak, end
-}
+// falling branch of its curve: HeadCurve.FlowAt on its own curve.
+func (p *Pump) FlowAt(s float64, h Head) (q Flow, ok bool) { return p.curve.FlowAt(s, h) }
 
 // bisect finds a root of f on [lo, hi] where f(lo) ≤ 0 ≤ f(hi).
 func bisect(f func(float64) float64, lo, hi float64) float64 {

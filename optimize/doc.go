@@ -43,10 +43,20 @@
 // times its service factor. Minimum flow and runout are given at rated
 // speed and move along affinity parabolas, q = X·s with X the
 // rated-equivalent flow. A branch loss k·q² between a unit and the header
-// is folded into an effective rated-speed curve H₀eff(X) = H₀(X) − k·X², so
-// that the affinity law H = s²·H₀eff(q/s) inverts in closed form for
-// quadratic curves (by bisection for cubic ones). A fixed-speed unit's span
-// is the single flow its curve gives at H.
+// is folded into an effective rated-speed curve H₀eff(X) = H₀(X) − k·X²
+// (curves.Pump.NetCurve), so that the affinity law H = s²·H₀eff(q/s)
+// inverts in closed form for quadratic curves and by safeguarded Newton on
+// the falling branch for cubic ones of either sign; runout is capped at the
+// end of that branch, where a cubic with a positive x³ term turns up again.
+// A fixed-speed unit's span is the single flow its curve gives at H.
+//
+// Capacity. An unmet result states the largest flow the allowed
+// combinations deliver at or above the required head with every limit met,
+// max over combinations and heads H ≥ H_req of Σ n_i·q_i,max(H), and the
+// limits that hold it (the required head, runout, maximum speed, the
+// motor). It is not the flow at the required head: a unit held at runout
+// gives more as the head rises, up to the head where its runout meets its
+// top-speed curve.
 //
 // Equal marginal power. Fixed-speed units give their curve flow; the
 // variable-speed models share the rest. For a separable convex cost with

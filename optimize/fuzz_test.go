@@ -80,12 +80,35 @@ type fzShape struct {
 	qb                      curves.Flow // BEP flow, m³/s
 	hb, etab, shut, k, last float64     // BEP head m, BEP efficiency, shutoff/BEP head, −η''(1)/η_b, last flow/BEP flow
 	humped, speedCorrection bool
+	// cubic, when not 0, is the x³ coefficient of a falling cubic head
+	// H₀/H_b = r − (r − 1 + c₃)x² + c₃x³ (r = shut), fitted with head_fit
+	// cubic; see fzCubic for its range.
+	cubic float64
+}
+
+// fzCubic returns the x³ coefficient of a cubic fuzz head curve from a
+// fraction f in (0, 1] and a sign. The curve r − (r − 1 + c)x² + cx³ passes
+// through 1 at x = 1 for any c. With c > 0 it is S-shaped, its minimum at
+// x = 2(r − 1 + c)/(3c); c ≤ (r − 1)/2 keeps that at x ≥ 2, past every
+// datasheet point (x ≤ 1.5). With c = −d < 0 it steepens: d ≤ r − 1 keeps
+// the x² coefficient ≤ 0, so it falls from zero flow, and
+// d ≤ (2.25 − 1.25r)/2.25 keeps at least half of the quadratic's head
+// r − 2.25(r − 1) at x = 1.5, the last point at most (the x³ term takes
+// 1.125d there) [derived by hand].
+func fzCubic(shut, f float64, positive bool) float64 {
+	if positive {
+		return f * (shut - 1) / 2
+	}
+	return -f * math.Min(shut-1, (2.25-1.25*shut)/2.25)
 }
 
 func (sh fzShape) build() (*curves.Pump, error) {
 	head := func(x float64) float64 {
 		if sh.humped {
 			return 1.1 + 0.4*x - 0.4*x*x - 0.1*x*x*x
+		}
+		if c := sh.cubic; c != 0 {
+			return sh.shut - (sh.shut-1+c)*x*x + c*x*x*x
 		}
 		return sh.shut - (sh.shut-1)*x*x
 	}
@@ -99,6 +122,9 @@ func (sh fzShape) build() (*curves.Pump, error) {
 	opt := curves.PumpOptions{SpeedCorrection: sh.speedCorrection}
 	if sh.humped {
 		opt.HeadDegree, opt.AllowRising = 3, true
+	}
+	if sh.cubic != 0 {
+		opt.HeadDegree = 3
 	}
 	return curves.NewPump(pts, opt)
 }
@@ -227,6 +253,29 @@ func fzBuild(data []byte, allowHumped bool) (*fzPlant, error) {
 			if err != nil {
 				return nil, fmt.Errorf("model %d, slow-rising efficiency: %w", i, err)
 			}
+			shapes[i] = sh
+			m.Pump = pump
+			m.Motor.Rated = pump.ShaftPower(m.Runout, 1, rho) * curves.Power(motorFactor[i])
+		}
+	}
+	// Read after the bypass byte, so that every input before keeps its
+	// plant: cubic head fits (head_fit cubic) of either sign of the x³
+	// term on the falling-curve models. Bit 7 turns them on; bit i (i < 4)
+	// makes model i+1's x³ term positive, else negative; bits 4–5 set its
+	// size, a quarter to all of fzCubic's range.
+	if cub := r.u8(); cub&0x80 != 0 {
+		f := 0.25 * float64(1+(cub>>4)&3)
+		for i := range p.Models {
+			if shapes[i].humped {
+				continue
+			}
+			m := &p.Models[i]
+			sh := shapes[i]
+			sh.cubic = fzCubic(sh.shut, f, cub&(1<<i) != 0)
+			pump, err := sh.build()
+			if err != nil {
+				return nil, fmt.Errorf("model %d, cubic head %+.3g: %w", i, sh.cubic, err)
+			}
 			m.Pump = pump
 			m.Motor.Rated = pump.ShaftPower(m.Runout, 1, rho) * curves.Power(motorFactor[i])
 		}
@@ -255,9 +304,9 @@ func (f *fzPlant) String() string {
 		for _, pt := range m.Pump.Points {
 			pts += fmt.Sprintf(" (%.6g, %.6g, %.4f)", float64(pt.Flow), float64(pt.Head), pt.Eff)
 		}
-		s += fmt.Sprintf("  %s ×%d %s speed %.4g–%.4g, min flow %.6g, runout %.6g, branch k %.6g, motor %.6g W η %.4f SF %.3g table %v, speed correction %v, points (Q, H, η):%s\n",
+		s += fmt.Sprintf("  %s ×%d %s speed %.4g–%.4g, min flow %.6g, runout %.6g, branch k %.6g, motor %.6g W η %.4f SF %.3g table %v, speed correction %v, head fit degree %d, points (Q, H, η):%s\n",
 			m.Name, m.Count, m.Drive.Describe(), m.MinSpeed, m.MaxSpeed, float64(m.MinFlow), float64(m.Runout), m.BranchK,
-			float64(m.Motor.Rated), m.Motor.FullLoadEff, m.Motor.SF(), m.Motor.Table != nil, m.Pump.SpeedCorrection, pts)
+			float64(m.Motor.Rated), m.Motor.FullLoadEff, m.Motor.SF(), m.Motor.Table != nil, m.Pump.SpeedCorrection, m.Pump.HeadFit.Degree, pts)
 	}
 	return s
 }

@@ -38,8 +38,16 @@ func (c limCode) Limit() Limit { return limNames[c] }
 // bounds returns the allowed flows of one unit at header head h. A
 // fixed-speed unit has lo == hi (its curve flow) when allowed.
 func (u *unitModel) bounds(h float64) span {
+	// flowAt, written out: the wrapper would cost this hot path a call.
+	at := func(s float64) (float64, bool) {
+		q, ok := u.net.FlowAt(s, curves.Head(h))
+		if !ok {
+			return u.pastBranch(s, h)
+		}
+		return float64(q), true
+	}
 	if !u.variable {
-		q, ok := u.flowAt(1, h)
+		q, ok := at(1)
 		if !ok || q <= 0 {
 			return span{why: limCapacity}
 		}
@@ -55,28 +63,28 @@ func (u *unitModel) bounds(h float64) span {
 		return sp
 	}
 	sp := span{ok: true, loLim: limMinSpeed, hiLim: limMaxSpeed}
-	hi, ok := u.flowAt(u.smax, h)
+	hi, ok := at(u.smax)
 	if !ok || hi <= 0 {
 		return span{why: limMaxSpeed}
 	}
 	sp.hi = hi
-	if lo, ok := u.flowAt(u.smin, h); ok {
-		sp.lo = lo
+	if lo, ok := at(u.smin); ok {
+		sp.lo = lo // +Inf below the end of the falling branch: too fast even at minimum speed
 	} else {
 		sp.loLim = limNone // the head alone keeps the speed above its minimum
 	}
 	if u.qmin > 0 {
-		q, ok := u.flowAtX(u.qmin, h)
+		q, ok := u.net.FlowAlong(curves.Flow(u.qmin), curves.Head(h))
 		if !ok {
 			return span{why: limMinFlow}
 		}
-		if q > sp.lo {
-			sp.lo, sp.loLim = q, limMinFlow
+		if float64(q) > sp.lo {
+			sp.lo, sp.loLim = float64(q), limMinFlow
 		}
 	}
 	if !math.IsInf(u.qrun, 1) {
-		if q, ok := u.flowAtX(u.qrun, h); ok && q < sp.hi {
-			sp.hi, sp.hiLim = q, limRunout
+		if q, ok := u.net.FlowAlong(curves.Flow(u.qrun), curves.Head(h)); ok && float64(q) < sp.hi {
+			sp.hi, sp.hiLim = float64(q), limRunout
 		}
 	}
 	if u.mayOverload && u.shaftAt(sp.hi, h) > u.shaftMax {

@@ -28,15 +28,21 @@ type suitePump struct {
 	shutoff float64     // shutoff head over BEP head, quadratic curves; 0 means 1.25
 	// effK is −η''(1)/η_b in x = Q/Q_BEP: 2 is the usual parabola through the
 	// origin, smaller is a flatter top. 0 means 2.
-	effK            float64
-	lastX           float64 // last datasheet flow over BEP flow; 0 means 1.3
-	humped          bool    // cubic head H₀/H_b = 1.1 + 0.4x − 0.4x² − 0.1x³, peak 1.19 at x ≈ 0.43
-	speedCorrection bool    // Sârbu–Borza step-down below rated speed
+	effK   float64
+	lastX  float64 // last datasheet flow over BEP flow; 0 means 1.3
+	humped bool    // cubic head H₀/H_b = 1.1 + 0.4x − 0.4x² − 0.1x³, peak 1.19 at x ≈ 0.43
+	// cubic, when set, is a falling cubic head H₀/H_b = Σ cubic[k] xᵏ
+	// (x = Q/Q_BEP), fitted with head_fit cubic.
+	cubic           []float64
+	speedCorrection bool // Sârbu–Borza step-down below rated speed
 }
 
 func (s suitePump) headAt(x float64) float64 {
 	if s.humped {
 		return 1.1 + 0.4*x - 0.4*x*x - 0.1*x*x*x
+	}
+	if s.cubic != nil {
+		return s.cubic[0] + x*(s.cubic[1]+x*(s.cubic[2]+x*s.cubic[3]))
 	}
 	r := s.shutoff
 	if r == 0 {
@@ -73,6 +79,9 @@ func (s suitePump) build(t testing.TB) *curves.Pump {
 	opt := curves.PumpOptions{SpeedCorrection: s.speedCorrection}
 	if s.humped {
 		opt.HeadDegree, opt.AllowRising = 3, true
+	}
+	if s.cubic != nil {
+		opt.HeadDegree = 3
 	}
 	p, err := curves.NewPump(pts, opt)
 	if err != nil {
@@ -147,6 +156,12 @@ var (
 	pumpS  = suitePump{bepFlow: 0.02, bepHead: 30, bepEff: 0.74} // ≈ 11 hp
 	pumpP2 = suitePump{bepFlow: 0.03, bepHead: 45, bepEff: 0.78} // ≈ 23 hp, 2-pole
 	pumpHm = suitePump{bepFlow: 0.10, bepHead: 30, bepEff: 0.83, humped: true}
+	// Falling cubics through the BEP point (H₀/H_b = 1 at x = 1). With a
+	// positive x³ term the curve flattens at high flow (an S-shaped curve,
+	// its minimum 0.8 at x = 2, past the last point); with a negative one it
+	// steepens.
+	pumpCubicPos = suitePump{bepFlow: 0.10, bepHead: 32, bepEff: 0.84, cubic: []float64{1.2, 0, -0.3, 0.1}}
+	pumpCubicNeg = suitePump{bepFlow: 0.10, bepHead: 32, bepEff: 0.84, cubic: []float64{1.25, -0.1, -0.1, -0.05}}
 	// Efficiency rising slowly from zero flow: η₀/η_b = 1.85x + 1.3x² − 2.15x³.
 	slowRiseA = suitePump{bepFlow: 0.10, bepHead: 37, bepEff: 0.72, shutoff: 1.14, effK: 4.3, speedCorrection: true}
 	slowRiseB = suitePump{bepFlow: 0.058, bepHead: 26, bepEff: 0.72, shutoff: 1.32, effK: 4.3, speedCorrection: true}
@@ -291,6 +306,21 @@ func suitePlants(t testing.TB) []*plant.Plant {
 		{name: "wide-runout", system: dp(0.30, 30, 0.3), models: []suiteModel{
 			mod(L, func(m *suiteModel) { m.pump.lastX, m.runoutX, m.minFlowX, m.motorHP = 1.5, 1.45, 0.2, 75 })}},
 		{name: "three-models", system: dp(0.17, 30, 0.4), models: []suiteModel{n(L, 1), M, S}},
+		// Cubic head fits of both signs of the x³ term. The positive one
+		// runs from half speed: the reference's speed search needs
+		// H₀(X)/X² to fall up to runout × top/bottom speed, and
+		// 1.2/x² − 0.3 + 0.1x turns up at x = 24^(1/3) ≈ 2.9.
+		{name: "cubic-positive", system: dp(0.25, 30, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.pump, m.minSpeed = pumpCubicPos, 0.5 })}},
+		{name: "cubic-negative", system: dp(0.25, 30, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.pump, m.motorHP = pumpCubicNeg, 75 })}},
+		{name: "cubic-positive-branch-beside-quadratic", system: dp(0.22, 30, 0.4), models: []suiteModel{
+			mod(L, func(m *suiteModel) { m.count, m.pump, m.minSpeed, m.branchFrac = 2, pumpCubicPos, 0.5, 0.05 }), M}},
+		{name: "cubic-fixed-beside-variable", system: dp(0.25, 30, 0.5), models: []suiteModel{
+			mod(L, func(m *suiteModel) {
+				m.name, m.count, m.pump, m.drive = "C-fixed", 1, pumpCubicPos, curves.FixedSpeed{}
+			}),
+			mod(L, func(m *suiteModel) { m.count, m.pump = 2, pumpCubicNeg })}},
 		{name: "constant-chain-zero-control", system: dp(0.25, 30, 0), models: []suiteModel{
 			mod(L, func(m *suiteModel) {
 				m.drive, m.motorTable, m.minSpeed, m.minFlowX = constantDrive, constantMotor, 0.1, -1
