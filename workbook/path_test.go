@@ -174,7 +174,9 @@ func TestAbortWritesRemovesTemporaryFile(t *testing.T) {
 			}
 			ready := make(chan bool, 1)
 			removed := make(chan string, 1)
+			eof := make(chan struct{})
 			go func() {
+				defer close(eof)
 				sc := bufio.NewScanner(stdout)
 				for sc.Scan() {
 					switch l := sc.Text(); {
@@ -196,6 +198,9 @@ func TestAbortWritesRemovesTemporaryFile(t *testing.T) {
 			if err := cmd.Process.Signal(sig); err != nil {
 				t.Fatal(err)
 			}
+			// Read the helper's output to its end before Wait, which closes
+			// the pipe (exec.Cmd.StdoutPipe: reads must finish first).
+			<-eof
 			_ = cmd.Wait()
 			if code := cmd.ProcessState.ExitCode(); code != 128+int(sig) {
 				t.Errorf("helper exit %d, want %d", code, 128+int(sig))
