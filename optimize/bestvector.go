@@ -77,6 +77,10 @@ func (s *Solver) evaluate(Q, hr, thr float64, best *state) *state {
 			break
 		}
 		cnt := s.leafCnt[lf.off : lf.off+n : lf.off+n]
+		if lf.fits && best != nil && len(s.mb) == n &&
+			s.refine(cnt, Q, s.br.rgq) > best.power*(1+boundSlack) {
+			continue // its own multiplier's bound puts it out of reach
+		}
 		st := s.proportionalAt(cnt, Q, hr, lf.fits, best)
 		if st == nil {
 			continue

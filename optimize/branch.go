@@ -69,19 +69,19 @@ func (s *Solver) prepareBranch(Q, hr float64, c Constraint) *branch {
 		for k := range lambdas {
 			g := 0.0
 			if m.spanOK {
-				g = math.Min(float64(lo)*m.g[k], float64(hi)*m.g[k])
+				g = min(float64(lo)*m.g[k], float64(hi)*m.g[k])
 			}
 			b.sufG[i][k] = b.sufG[i+1][k] + g
 			gx := 0.0
 			if m.topOK {
-				gx = math.Min(float64(lo)*m.gx[k], float64(hi)*m.gx[k])
+				gx = min(float64(lo)*m.gx[k], float64(hi)*m.gx[k])
 			}
 			b.sufGx[i][k] = b.sufGx[i+1][k] + gx
 		}
 		b.sufTop[i], b.sufCount[i], b.sufEta[i] = b.sufTop[i+1], b.sufCount[i+1]+hi, b.sufEta[i+1]
 		if m.topOK {
 			b.sufTop[i] += float64(hi) * m.top
-			b.sufEta[i] = math.Max(b.sufEta[i], m.eta)
+			b.sufEta[i] = max(b.sufEta[i], m.eta)
 		}
 	}
 	return b
@@ -142,7 +142,7 @@ func (b *branch) walk(i int, nd *node) {
 			ch.hi += fn * m.hi
 			ch.top += fn * m.top
 			ch.pmin += fn * m.pmin
-			ch.eta = math.Max(ch.eta, m.eta)
+			ch.eta = max(ch.eta, m.eta)
 		}
 		if b.c.Counts == nil && b.c.Total > 0 && (ch.units > b.c.Total || ch.units+b.sufCount[i+1] < b.c.Total) {
 			continue
@@ -173,22 +173,22 @@ func (b *branch) nodeBound(i int, nd *node) float64 {
 	if nd.fitsDead {
 		return rise
 	}
-	return math.Min(b.fitBound(i, nd), rise)
+	return min(b.fitBound(i, nd), rise)
 }
 
 // universal is the bound valid at every head: Σ n_i P_min,i and
 // ρ g Q h_r / η_BEP with the best pump efficiency of the models.
 func (b *branch) universal(i int, nd *node) float64 {
-	return math.Max(nd.pmin, b.rgq/math.Max(nd.eta, b.sufEta[i]))
+	return max(nd.pmin, b.rgq/max(nd.eta, b.sufEta[i]))
 }
 
 // fitBound bounds the vectors below a node at the required head.
 func (b *branch) fitBound(i int, nd *node) float64 {
 	fit := math.Inf(-1)
 	for k := range lambdas {
-		fit = math.Max(fit, lambdaLadder[k]*b.rgq+nd.g[k]+b.sufG[i][k])
+		fit = max(fit, lambdaLadder[k]*b.rgq+nd.g[k]+b.sufG[i][k])
 	}
-	return math.Max(fit, b.universal(i, nd))
+	return max(fit, b.universal(i, nd))
 }
 
 // riseBound bounds the vectors below a node at any head from h_r up: the
@@ -197,13 +197,13 @@ func (b *branch) fitBound(i int, nd *node) float64 {
 func (b *branch) riseBound(i int, nd *node) float64 {
 	rise, atHr := math.Inf(-1), math.Inf(-1)
 	for k := range lambdas {
-		rise = math.Max(rise, lambdaLadder[k]*b.rgq+nd.gx[k]+b.sufGx[i][k])
-		atHr = math.Max(atHr, lambdaLadder[k]*b.rgq+nd.g[k]+b.sufG[i][k])
+		rise = max(rise, lambdaLadder[k]*b.rgq+nd.gx[k]+b.sufGx[i][k])
+		atHr = max(atHr, lambdaLadder[k]*b.rgq+nd.g[k]+b.sufG[i][k])
 	}
 	if !nd.spanDead {
-		rise = math.Max(rise, riseMargin*atHr)
+		rise = max(rise, riseMargin*atHr)
 	}
-	return math.Max(rise, b.universal(i, nd))
+	return max(rise, b.universal(i, nd))
 }
 
 // riseMargin is how far below the Lagrangian bound at the required head's
@@ -225,9 +225,6 @@ func (b *branch) leafAt(nd *node) {
 	switch {
 	case fits:
 		bound = b.fitBound(len(b.s.units), nd)
-		if bound <= b.thr && bound > b.floor {
-			bound = math.Max(bound, b.refine(nd))
-		}
 	case !nd.risingDead && nd.top >= Q*(1-1e-9):
 		bound = b.riseBound(len(b.s.units), nd)
 	default:
@@ -240,26 +237,33 @@ func (b *branch) leafAt(nd *node) {
 	s.leaves = append(s.leaves, leaf{off: len(s.leafCnt), bound: bound, fits: fits})
 	s.leafCnt = append(s.leafCnt, b.cur...)
 	if b.ratio > 0 {
-		b.thr = math.Min(b.thr, b.ratio*bound)
+		b.thr = min(b.thr, b.ratio*bound)
 	}
 }
 
-// refine is a fitting leaf's Lagrangian bound at its own best multiplier:
-// the dual λQ + Σ n_i g_i(λ) is concave in λ, so a golden-section search
-// between the ladder's neighbours of its best rung finds its peak.
-func (b *branch) refine(nd *node) float64 {
-	s := b.s
+// refine is a fitting vector's Lagrangian bound at its own best
+// multiplier: the dual λQ + Σ n_i g_i(λ) is concave in λ, so a
+// golden-section search between the ladder's neighbours of its best rung
+// finds its peak. It is computed only for the vectors evaluation reaches
+// (the ladder's bound orders them).
+func (s *Solver) refine(cnt []int, Q, rgq float64) float64 {
 	kb, best := 0, math.Inf(-1)
 	for k := range lambdas {
-		if v := lambdaLadder[k]*b.rgq + nd.g[k]; v > best {
+		v := lambdaLadder[k] * rgq
+		for i, n := range cnt {
+			if n > 0 {
+				v += float64(n) * s.mb[i].g[k]
+			}
+		}
+		if v > best {
 			kb, best = k, v
 		}
 	}
-	rgh := b.rgq / b.Q
+	rgh := rgq / Q
 	a, c := lambdaLadder[max(kb-1, 0)]*rgh, lambdaLadder[min(kb+1, lambdas-1)]*rgh
 	dual := func(lam float64) float64 {
-		v := lam * b.Q
-		for i, n := range b.cur {
+		v := lam * Q
+		for i, n := range cnt {
 			if n > 0 {
 				v += float64(n) * s.mb[i].at(lam)
 			}
@@ -275,5 +279,5 @@ func (b *branch) refine(nd *node) float64 {
 			a = m1
 		}
 	}
-	return math.Max(best, dual((a+c)/2))
+	return max(best, dual((a+c)/2))
 }
