@@ -26,7 +26,7 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint) (*state, []*state) 
 	if c.Counts != nil {
 		return s.oneVector(Q, hr, c.Counts), s.near
 	}
-	if len(s.combos) <= fewVectors {
+	if s.exhaustive || len(s.combos) <= fewVectors {
 		return s.everyVector(Q, hr, c)
 	}
 	s.prepareBounds(Q, hr)

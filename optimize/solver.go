@@ -45,6 +45,8 @@ type Solver struct {
 	opt    Options
 	units  []*unitModel
 	combos [][]int
+	// exhaustive evaluates every count vector, without the bounds (tests).
+	exhaustive bool
 	// byTotal lists the vectors by their number of running units.
 	byTotal map[int][][]int
 	rho     float64
