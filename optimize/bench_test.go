@@ -117,7 +117,7 @@ func benchPlant8Corrected(t testing.TB) *plant.Plant {
 }
 
 // benchPlant24 is an invented 24-unit plant of 6 models, 4 units each
-// (15,624 count vectors, above the plant file's cap of 4,095: the solver
+// (15,624 count vectors, above the plant file's cap of 800: the solver
 // itself takes it), with the step-down on.
 func benchPlant24(t testing.TB) *plant.Plant {
 	on := func(m suiteModel, name string, shutoff, dEff float64) suiteModel {

@@ -108,10 +108,13 @@ func (d *decoder) pumps(n *yaml.Node) []*pumpSpec {
 
 // maxVectors caps the number of count vectors a plant offers the optimiser,
 // Π(count + 1) − 1 over its models (every way to run some of its units):
-// the cost of a solve grows with it, and above the cap a year of hourly
-// steps would take more than about a minute on an ordinary computer
-// (DEVELOPERS.md, "Benchmarks").
-const maxVectors = 4095
+// the cost of a solve grows with it. An hourly year of `plan` on a 2-core
+// machine took 47 s of CPU at 728 vectors (six models of two), 54 s at 999
+// (three models of nine), 106 s at 1,023 (ten single-unit models) and 293 s
+// at 4,095 (DEVELOPERS.md, "Benchmarks"); the cap keeps a year within about
+// a minute and still takes three models of eight or six of two (728), two
+// of twenty (440) and nine single-unit models (511).
+const maxVectors = 800
 
 // checkVectors refuses a plant whose models' counts give more than
 // maxVectors count vectors.
