@@ -25,7 +25,6 @@ type branch struct {
 	floor  float64 // ... and leaves bounded at or below floor (listed before)
 	ratio  float64 // thr follows ratio × the least leaf bound found; 0 = fixed
 	cur    []int
-	units  int
 	// Suffix sums over the models from depth i on: the least Σ n_j g_j(λ_k)
 	// (each n_j from 0 to its count), the most top-speed flow, the most
 	// units, the best pump efficiency.
