@@ -25,6 +25,7 @@ type branch struct {
 	floor  float64 // ... and leaves bounded at or below floor (listed before)
 	ratio  float64 // thr follows ratio × the least leaf bound found; 0 = fixed
 	cur    []int
+	nodes  []node // the partial sums at each depth of the walk
 	// Suffix sums over the models from depth i on: the least Σ n_j g_j(λ_k)
 	// (each n_j from 0 to its count), the most top-speed flow, the most
 	// units, the best pump efficiency.
@@ -50,7 +51,7 @@ func (s *Solver) prepareBranch(Q, hr float64, c Constraint) *branch {
 	n := len(s.units)
 	b := &s.br
 	*b = branch{s: s, Q: Q, rgq: s.rho * curves.Gravity * Q * hr, c: c,
-		cur: slices.Grow(b.cur[:0], n)[:n], sufG: b.sufG[:0], sufGx: b.sufGx[:0], sufTop: b.sufTop[:0],
+		cur: slices.Grow(b.cur[:0], n)[:n], nodes: b.nodes, sufG: b.sufG[:0], sufGx: b.sufGx[:0], sufTop: b.sufTop[:0],
 		sufCount: b.sufCount[:0], sufEta: b.sufEta[:0]}
 	b.sufG = slices.Grow(b.sufG, n+1)[:n+1]
 	b.sufGx = slices.Grow(b.sufGx, n+1)[:n+1]
@@ -102,7 +103,12 @@ type node struct {
 // returns the threshold it ended with (lower than thr when ratio tightened
 // it).
 func (b *branch) list() float64 {
-	b.walk(0, &node{})
+	if cap(b.nodes) < len(b.s.units)+1 {
+		b.nodes = make([]node, len(b.s.units)+1)
+	}
+	b.nodes = b.nodes[:len(b.s.units)+1]
+	b.nodes[0] = node{}
+	b.walk(0, &b.nodes[0])
 	return b.thr
 }
 
@@ -120,7 +126,8 @@ func (b *branch) walk(i int, nd *node) {
 	defer func() { b.cur[i] = 0 }()
 	for n := lo; n <= hi; n++ {
 		b.cur[i] = n
-		ch := *nd
+		ch := &b.nodes[i+1] // one node per depth: no allocation
+		*ch = *nd
 		if n > 0 {
 			fn := float64(n)
 			ch.units += n
@@ -152,13 +159,13 @@ func (b *branch) walk(i int, nd *node) {
 		if ch.lo > b.Q*(1+1e-10) {
 			ch.fitsDead = true
 		}
-		if b.nodeBound(i+1, &ch) > b.thr {
+		if b.nodeBound(i+1, ch) > b.thr {
 			if ch.fitsDead && ch.pmin > b.thr {
 				return // every further unit only adds to the floor
 			}
 			continue
 		}
-		b.walk(i+1, &ch)
+		b.walk(i+1, ch)
 	}
 }
 
