@@ -6,6 +6,7 @@ import (
 	"io"
 	"math"
 	"strings"
+	"time"
 
 	"github.com/spf13/cobra"
 
@@ -75,7 +76,7 @@ const (
 )
 
 // planStudy loads the plant, reads its profile and runs the study.
-func planStudy(path, binWidth, baseline string, detail bool, progress func(string, int, int)) (*study.Result, error) {
+func planStudy(path, binWidth, baseline string, detail bool, pr *progressLine) (*study.Result, error) {
 	p, err := loadPlant(path)
 	if err != nil {
 		return nil, err
@@ -93,7 +94,11 @@ func planStudy(path, binWidth, baseline string, detail bool, progress func(strin
 	if err != nil {
 		return nil, badInput(err)
 	}
-	res, err := study.Run(in, study.Options{Baseline: baseline, Progress: progress, KeepStates: detail})
+	opt := study.Options{Baseline: baseline, KeepStates: detail}
+	if pr != nil {
+		opt.Progress, opt.Advance = pr.step, pr.advance
+	}
+	res, err := study.Run(in, opt)
 	if errors.Is(err, study.ErrBaseline) {
 		return nil, badInput(err)
 	}
@@ -104,16 +109,12 @@ func planRun(opts *PlanOptions) error {
 	if err := checkOutputPath(opts.IO.Err, opts.Output, opts.OutputSet, opts.PlantPath, opts.Force); err != nil {
 		return err
 	}
-	var progress func(string, int, int)
+	var pr *progressLine
 	if opts.IO.Terminal {
-		progress = func(label string, i, n int) {
-			fmt.Fprintf(opts.IO.Err, "\r[%d/%d] %-50s", i+1, n, label)
-			if i == n-1 {
-				fmt.Fprint(opts.IO.Err, "\r"+strings.Repeat(" ", 60)+"\r")
-			}
-		}
+		pr = newProgressLine(opts.IO.Err, time.Now)
 	}
-	res, err := planStudy(opts.PlantPath, opts.BinWidth, opts.Baseline, opts.JSON && opts.Detail, progress)
+	res, err := planStudy(opts.PlantPath, opts.BinWidth, opts.Baseline, opts.JSON && opts.Detail, pr)
+	pr.clear()
 	if err != nil {
 		return err
 	}

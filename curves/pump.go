@@ -351,9 +351,12 @@ const stepDownFloor = 0.5
 
 // SarbuBorza returns the efficiency at speed ratio s of a pump whose
 // efficiency at rated speed is eta: η₂ = 1 − (1 − η₁)(n₁/n₂)^0.1
-// (Sârbu & Borza 1998).
+// (Sârbu & Borza 1998). (1/s)^0.1 is written exp(0.1·ln(1/s)), which is
+// what math.Pow computes for a fractional exponent below one, bit for bit,
+// without its special cases and exponent splitting (the hot path of every
+// variable-speed solve with the step-down on).
 func SarbuBorza(eta, s float64) float64 {
-	return 1 - (1-eta)*math.Pow(1/s, 0.1)
+	return 1 - (1-eta)*math.Exp(0.1*math.Log(1/s))
 }
 
 // ShaftPower returns the shaft input ρ g q H / η at flow q, speed s for a

@@ -36,6 +36,20 @@
 // its installed units, not all zero) is a candidate; [Constraint] narrows
 // them to a total or to one vector.
 //
+// Bounds before evaluation. Their number, Π(count+1) − 1, grows
+// exponentially with the models, so on a plant of more than 16 vectors
+// they are not all evaluated: a branch and bound over the models lists
+// them with a lower bound on their input (bound.go, branch.go) and they are
+// evaluated from the lowest bound up until the next bound passes the best
+// input found (with a 0.2 % allowance). At the required head h_r the bound
+// is Lagrangian (weak duality): for any multiplier λ, Σ n_i P_i(q_i) ≥
+// λQ + Σ n_i min over the span of (P_i(q) − λq), additive over models,
+// taken over a ladder of λ and refined at a vector's own best λ before it
+// is evaluated. A vector that needs a higher head is bounded over every
+// speed and flow its units may take from h_r up (affinity laws, the least
+// ratio of wire to shaft power of its motor and drive), and by the
+// required-head bound less riseMargin (an observed, not proven, margin).
+//
 // Per-model spans. At a header head H each model's units may run over one
 // interval of per-unit flow: from the larger of the flow at minimum speed
 // and the minimum flow, to the smaller of the flow at maximum speed, the

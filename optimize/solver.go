@@ -2,7 +2,6 @@ package optimize
 
 import (
 	"math"
-	"sort"
 	"sync/atomic"
 
 	"wattstage/curves"
@@ -46,9 +45,13 @@ type Solver struct {
 	opt    Options
 	units  []*unitModel
 	combos [][]int
-	rho    float64
-	spans  []span // scratch
-	varBuf []int  // scratch for sidesAt's list of variable models
+	// exhaustive evaluates every count vector, without the bounds (tests).
+	exhaustive bool
+	// byTotal lists the vectors by their number of running units.
+	byTotal map[int][][]int
+	rho     float64
+	spans   []span // scratch
+	varBuf  []int  // scratch for sidesAt's list of variable models
 
 	allocSpans, scanSpans []span    // scratch of atHeadMode and the head scan
 	floatBuf              []float64 // scratch of equalMarginal
@@ -59,6 +62,15 @@ type Solver struct {
 	gridSpan  [][]span
 	gridKnown [][]bool
 
+	// Per solve: each model's bounds at the required head, the branch and
+	// bound over the counts, and the vectors it lists (bound.go, branch.go).
+	mb      []modelBound
+	scans   []powerScan
+	br      branch
+	leaves  []leaf
+	leafCnt []int
+	near    []*state
+
 	// Per model: whether its power is convex on its span at head cvxH
 	// (most states of a solve share the required head).
 	cvxH  []float64
@@ -67,7 +79,7 @@ type Solver struct {
 
 // New returns a solver for the plant.
 func New(p *plant.Plant, opt Options) *Solver {
-	s := &Solver{plant: p, opt: opt, rho: p.Fluid.Density}
+	s := &Solver{plant: p, opt: opt, rho: p.Fluid.Density, byTotal: map[int][][]int{}}
 	for i := range p.Models {
 		u := newUnitModel(i, &p.Models[i], s.rho)
 		if opt.PreferredOnly {
@@ -75,8 +87,16 @@ func New(p *plant.Plant, opt Options) *Solver {
 			u.qmin, u.qrun = math.Max(u.qmin, 0.7*bep), math.Min(u.qrun, 1.2*bep)
 		}
 		s.units = append(s.units, u)
+		s.scans = append(s.scans, scanPower(u))
 	}
 	s.combos = enumerate(p.Models)
+	for _, cnt := range s.combos {
+		n := 0
+		for _, v := range cnt {
+			n += v
+		}
+		s.byTotal[n] = append(s.byTotal[n], cnt)
+	}
 	s.varBuf = make([]int, 0, len(p.Models))
 	s.cvxH = make([]float64, len(p.Models))
 	s.cvxOK = make([]bool, len(p.Models))
@@ -150,72 +170,9 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 	}
 	Q := float64(pumped)
 	s.resetGrid(hr)
-	// First pass: every allowed combo at its lowest feasible head, with the
-	// variable units' flow split in proportion to their ranges — exact for a
-	// combo with one variable model, an upper bound on the others' power.
-	type cand struct {
-		st    *state
-		exact bool
-	}
-	var cands []cand
-	quickBest := math.Inf(1)
-	add := func(cnt []int, h float64) {
-		if st, sd := s.atHeadMode(cnt, Q, h, splitProportional); sd == fits {
-			cands = append(cands, cand{st, s.variableModels(cnt) <= 1})
-			quickBest = math.Min(quickBest, st.power)
-		}
-	}
-	var rising [][]int
-	for _, cnt := range s.combos {
-		if !c.allows(cnt) {
-			continue
-		}
-		if _, _, sd := s.sidesAt(cnt, Q, hr, 0, s.spanBuf(len(cnt))); sd == fits {
-			add(cnt, hr)
-		} else if s.mayRise(cnt, Q, hr) {
-			rising = append(rising, cnt)
-		}
-	}
-	// Combos that need a higher head: no unit converts more than its best
-	// pump efficiency of ρ g Q H into shaft power, so a combo whose lowest
-	// feasible head already costs more than the best found cannot win.
-	for _, cnt := range rising {
-		h := s.lowestFeasibleHeadBound(cnt, Q, hr, quickBest)
-		if h > 0 {
-			add(cnt, h)
-		}
-	}
-	// Second pass, cheapest proportional split first: the full equal-marginal
-	// split for multi-model combos whose proportional split is within
-	// quickMargin of the best state found so far. Across the optimality
-	// suite a proportional split was never more than 1.1 % above its
-	// combo's own optimum.
-	sort.Slice(cands, func(i, j int) bool { return cands[i].st.power < cands[j].st.power })
-	var best *state
-	var near []*state
-	for _, cd := range cands {
-		st := cd.st
-		if best != nil && st.power > quickMargin*best.power {
-			// Sorted: every later combo is further off, unless its
-			// proportional split says little about its optimum (a model
-			// whose power is not convex, where the best split may lie far
-			// from it).
-			if cd.exact || st.power > bentMargin*best.power || s.convexAt(st) {
-				continue
-			}
-		}
-		if !cd.exact {
-			if full, sd := s.atHeadMode(st.counts, Q, st.h, splitGlobal); sd == fits {
-				st = full
-			}
-		}
-		near = append(near, st)
-		if best == nil || st.power < best.power {
-			best = st
-		}
-	}
+	best, near := s.branchAndBound(Q, hr, c)
 	if best == nil {
-		return s.unmet(res, Q, hr, c)
+		return s.unmetOnly(res, Q, hr, c)
 	}
 	// A header head above the control curve can be cheaper where a speed or
 	// flow floor binds (docs/sources.md §10): search it for the combos near the best.
@@ -273,3 +230,19 @@ const quickMargin = 1.03
 // the combo's optimum (up to 7.8 % seen, on two-model plants whose pump
 // efficiency rises slowly from zero flow, at 10 % of design flow).
 const bentMargin = 1.10
+
+// unmetOnly is unmet with the solver's list of vectors narrowed to those
+// the constraint allows (a given vector alone, or those of a given total),
+// so that explaining an unserved point of a fixed staging does not walk
+// every vector of a large plant.
+func (s *Solver) unmetOnly(res Result, Q, hr float64, c Constraint) Result {
+	all := s.combos
+	defer func() { s.combos = all }()
+	switch {
+	case c.Counts != nil:
+		s.combos = [][]int{c.Counts}
+	case c.Total > 0:
+		s.combos = s.byTotal[c.Total]
+	}
+	return s.unmet(res, Q, hr, c)
+}

@@ -89,8 +89,9 @@ func (l *Lowest) Stream(steps []Step, visit func(int, *Result)) Run {
 		r.Note = "the lowest-power count of running units and their speeds at every step"
 	}
 	prev := -1
+	var cache flowCache
 	for i, st := range steps {
-		res := l.Solver.Solve(st.Load)
+		res := cache.solve(st.Load, l.Solver.Solve)
 		visit(i, &res)
 		prev = countChange(&r, st, res, prev)
 	}
@@ -342,8 +343,9 @@ func (t *Throttled) solve(load curves.Flow) Result {
 func (t *Throttled) Stream(steps []Step, visit func(int, *Result)) Run {
 	r := Run{Name: t.Label, Plant: t.Plant, Note: "fixed speed; a valve throttles the extra head; the fewest units that serve the flow"}
 	prev := -1
+	var cache flowCache
 	for i, st := range steps {
-		res := t.solve(st.Load)
+		res := cache.solve(st.Load, t.solve)
 		visit(i, &res)
 		prev = countChange(&r, st, res, prev)
 	}

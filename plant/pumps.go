@@ -102,7 +102,48 @@ func (d *decoder) pumps(n *yaml.Node) []*pumpSpec {
 			names[s.model.Name] = i
 		}
 	}
+	d.checkVectors(n, specs)
 	return specs
+}
+
+// maxVectors caps the number of count vectors a plant offers the optimiser,
+// Π(count + 1) − 1 over its models (every way to run some of its units):
+// the cost of a solve grows with it. An hourly year of `plan` on a 2-core
+// machine took 47 s of CPU at 728 vectors (six models of two), 54 s at 999
+// (three models of nine), 106 s at 1,023 (ten single-unit models) and 293 s
+// at 4,095 (DEVELOPERS.md, "Benchmarks"); the cap keeps a year within about
+// a minute and still takes three models of eight or six of two (728), two
+// of twenty (440) and nine single-unit models (511).
+const maxVectors = 800
+
+// checkVectors refuses a plant whose models' counts give more than
+// maxVectors count vectors.
+func (d *decoder) checkVectors(n *yaml.Node, specs []*pumpSpec) {
+	prod := 1
+	for _, s := range specs {
+		if s == nil || s.model.Count < 1 {
+			return
+		}
+		prod *= s.model.Count + 1
+		if prod-1 > maxVectors {
+			break
+		}
+	}
+	if prod-1 > maxVectors {
+		d.errorf(n, "pumps", "the models' counts give %s ways to run some of the units (the product of count + 1 over the models, less one); at most %d are supported: merge identical models, or hold units in standby (pumps[].standby)", vectorsText(specs), maxVectors)
+	}
+}
+
+// vectorsText is Π(count + 1) − 1 written out, or "more than a billion".
+func vectorsText(specs []*pumpSpec) string {
+	prod := 1.0
+	for _, s := range specs {
+		prod *= float64(s.model.Count + 1)
+	}
+	if prod > 1e9 {
+		return "more than a billion"
+	}
+	return fmt.Sprintf("%.0f", prod-1)
 }
 
 // pump reads one pump model and fits its curve.

@@ -56,6 +56,7 @@ func (a *accumulator) groupKey(load curves.Flow) int {
 }
 
 func (a *accumulator) visit(i int, res *optimize.Result) {
+	a.r.tick.tick()
 	st := a.r.Steps[i]
 	a.e.Hours += st.Hours
 	if a.keep {
@@ -155,9 +156,10 @@ func (a *accumulator) loadPoints(sampleCost []float64) []LoadPoint {
 
 // streamEnergy runs a strategy and totals its energy without keeping its
 // states (the savings range, the binning check).
-func streamEnergy(s optimize.Strategy, steps []optimize.Step) Energy {
+func streamEnergy(s optimize.Strategy, steps []optimize.Step, t *ticker) Energy {
 	e := Energy{UnmetBy: map[optimize.Limit]float64{}, KW: make([]float64, len(steps))}
 	run := s.Stream(steps, func(i int, res *optimize.Result) {
+		t.tick()
 		st := steps[i]
 		e.Hours += st.Hours
 		if res.Status != optimize.Served {

@@ -26,8 +26,8 @@ func (r *Result) rangeCase(s Sensitivity, base string) (RangeCase, error) {
 			baseline = k.Strategy
 		}
 	}
-	le := streamEnergy(lowest, r.Steps)
-	be := streamEnergy(baseline, r.Steps)
+	le := streamEnergy(lowest, r.Steps, r.tick)
+	be := streamEnergy(baseline, r.Steps, r.tick)
 	la, err := r.annual(le)
 	if err != nil {
 		return RangeCase{}, err

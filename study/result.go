@@ -14,6 +14,7 @@ import (
 // setpoints, the chart tables and every warning. The text report, the
 // JSON and the workbook are renderings of it and compute nothing.
 type Result struct {
+	tick   *ticker // counts solved steps for Options.Advance; nil = silent
 	Plant  *plant.Plant
 	Trend  *profile.Trend  // the trend the profile names; nil for bins
 	Binned *profile.Binned // the trend's bins when they were solved instead of every interval

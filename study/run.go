@@ -32,6 +32,10 @@ type Options struct {
 	// Progress, when set, is called before each long step (a strategy, a
 	// sensitivity case) with its label, its index and the number of steps.
 	Progress func(label string, i, n int)
+	// Advance, when set, is called as the strategies and range cases solve
+	// their steps with the share of that work done, from 0 to 1, at most
+	// once per percent (from any goroutine, one call at a time).
+	Advance func(share float64)
 }
 
 // ErrBaseline is returned by Run when the chosen baseline is not one of
@@ -101,6 +105,7 @@ func Run(in *Input, opt Options) (*Result, error) {
 		opt.Progress(label, done, len(ks)+len(sens))
 		done++
 	}
+	r.tick = newTicker((len(ks)+2*len(sens))*len(r.Steps), opt.Advance)
 	parallel(len(ks)+len(sens), func(j int) {
 		if j < len(ks) {
 			report(ks[j].Strategy.Name())
@@ -230,7 +235,7 @@ func (r *Result) runChecks(ks []Keyed) {
 	if r.Trend != nil && r.Binned == nil && r.LoadBinWidth > 0 {
 		if b, err := r.Trend.Bin(r.LoadBinWidth); err == nil {
 			steps := optimize.StepsFromBinned(b)
-			e := streamEnergy(ks[0].Strategy, steps)
+			e := streamEnergy(ks[0].Strategy, steps, nil)
 			r.Binning = &BinningCheck{Width: b.Width, Bins: len(b.Bins), CubeError: b.CubeError,
 				EveryKWh: r.Strategies[0].Annual.Energy, BinnedKWh: e.KWh * r.Period.Factor}
 		}
