@@ -154,7 +154,7 @@ func (s *Solver) extended(i int, b *modelBound, hr, rgh float64) {
 		b.gx[k] = math.Inf(1)
 	}
 	for j, X := range sc.x {
-		he := u.h0(X)
+		he := float64(u.net.At(curves.Flow(X)))
 		if he <= 0 || he*u.smax*u.smax < hr*(1-1e-9) {
 			continue
 		}
