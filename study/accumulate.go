@@ -13,7 +13,7 @@ import (
 // tests and the JSON detail); above it, a study keeps aggregates only, so a
 // long trend runs in memory that does not grow with its length beyond a
 // few numbers a step.
-const KeepStatesUpTo = 50_000
+const KeepStatesUpTo = 10_000
 
 // accumulator gathers what the study needs from a strategy's states as
 // they are solved: the energy, the unit-hours by region and the load-point
