@@ -36,16 +36,22 @@ func TimeLayout(format string) (string, error) {
 	}
 	var b strings.Builder
 	rs := []rune(format)
+	// A one-letter number field (D, M, h, H, m, s) has one or two digits, so
+	// next to another number field with no separator the stamp cannot be
+	// read one way only ("sHH" as 515: 5 s and 15 h, or 51 s and 5 h).
+	prevNumber, prevVariable := false, false
 	for i := 0; i < len(rs); {
 		if m, ok := ampmAt(rs[i:]); ok {
 			b.WriteString(m.layout)
 			i += len([]rune(m.pattern))
+			prevNumber, prevVariable = false, false
 			continue
 		}
 		r := rs[i]
 		if !unicode.IsLetter(r) {
 			b.WriteRune(r)
 			i++
+			prevNumber, prevVariable = false, false
 			continue
 		}
 		n := 1
@@ -57,6 +63,13 @@ func TimeLayout(format string) (string, error) {
 		if err != nil {
 			return "", fmt.Errorf("profile: time_format %q: %w", format, err)
 		}
+		number := strings.ContainsRune("YMDhHmsf", r) && !(r == 'M' && n >= 3)
+		variable := number && n == 1
+		if number && (prevVariable || variable && prevNumber) {
+			return "", fmt.Errorf("profile: time_format %q: a one-letter field next to another number needs a separator (write %s%s or put a character between them)",
+				format, tok, tok)
+		}
+		prevNumber, prevVariable = number, variable
 		b.WriteString(lay)
 		i += n
 	}
