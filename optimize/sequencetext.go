@@ -312,8 +312,10 @@ func minutes(d time.Duration) string {
 	return fmt.Sprintf("%.0f min", d.Minutes())
 }
 
-// thousands writes v with dec decimals and a comma between groups of three
-// digits, e.g. 1,540.
+// Thousands writes v with dec decimals and a comma between groups of three
+// digits, e.g. 1,540; "–" for NaN or ±Inf.
+func Thousands(v float64, dec int) string { return thousands(v, dec) }
+
 func thousands(v float64, dec int) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return "–"

@@ -13,6 +13,7 @@ import (
 	"strings"
 	"unicode/utf16"
 	"unicode/utf8"
+	"wattstage/profile"
 
 	"gopkg.in/yaml.v3"
 
@@ -41,7 +42,7 @@ func Load(path string) (*Plant, error) {
 		return nil, ErrorList{{File: path, Msg: "cannot read the plant file: " + describeFSError(err), Err: err}}
 	}
 	if !st.Mode().IsRegular() {
-		return nil, ErrorList{{File: path, Msg: fmt.Sprintf("is %s, not a regular file: give the plant file itself (a pipe or a device could keep the read waiting forever)", fileKind(st.Mode()))}}
+		return nil, ErrorList{{File: path, Msg: fmt.Sprintf("is %s, not a regular file: give the plant file itself (a pipe or a device could keep the read waiting forever)", profile.FileKind(st.Mode()))}}
 	}
 	f, err := os.Open(path)
 	if err != nil {
@@ -53,23 +54,6 @@ func Load(path string) (*Plant, error) {
 		return nil, ErrorList{{File: path, Msg: "cannot read the plant file: " + describeFSError(err), Err: err}}
 	}
 	return Parse(path, data, filepath.Dir(path))
-}
-
-// fileKind names a file's type for a message.
-func fileKind(m os.FileMode) string {
-	switch {
-	case m.IsDir():
-		return "a folder"
-	case m&os.ModeNamedPipe != 0:
-		return "a named pipe (FIFO)"
-	case m&os.ModeCharDevice != 0:
-		return "a character device"
-	case m&os.ModeDevice != 0:
-		return "a block device"
-	case m&os.ModeSocket != 0:
-		return "a socket"
-	}
-	return "a special file"
 }
 
 // describeFSError words an fs error without repeating the path.

@@ -141,7 +141,7 @@ func (d *decoder) trend(n *yaml.Node) *profile.TrendSpec {
 			} else if st.IsDir() {
 				d.errorf(fn, join(path, "file"), "%s is a folder, not a CSV file", p)
 			} else if !st.Mode().IsRegular() {
-				d.errorf(fn, join(path, "file"), "%s is %s, not a regular file: give the trend log itself (a pipe or a device could keep the read waiting forever)", p, fileKind(st.Mode()))
+				d.errorf(fn, join(path, "file"), "%s is %s, not a regular file: give the trend log itself (a pipe or a device could keep the read waiting forever)", p, profile.FileKind(st.Mode()))
 			}
 		}
 	}

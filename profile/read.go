@@ -44,7 +44,7 @@ func ReadTrendFile(spec TrendSpec, path string) (*Trend, error) {
 	}
 	if !st.Mode().IsRegular() {
 		return nil, &ParseError{File: path, Err: fmt.Errorf("%w: it is %s; give the trend log itself (a pipe or a device could keep the read waiting forever)",
-			ErrNotRegular, fileKind(st.Mode()))}
+			ErrNotRegular, FileKind(st.Mode()))}
 	}
 	f, err := os.Open(path)
 	if err != nil {
@@ -98,8 +98,9 @@ type reader struct {
 	alt            byte // the first other delimiter a row split on
 }
 
-// fileKind names a file's type for a message.
-func fileKind(m os.FileMode) string {
+// FileKind names a file's type for a message ("a folder", "a named pipe
+// (FIFO)", …): the plant loader and the trend reader word it alike.
+func FileKind(m os.FileMode) string {
 	switch {
 	case m.IsDir():
 		return "a folder"

@@ -3,9 +3,9 @@ package study
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"wattstage/econ"
+	"wattstage/optimize"
 )
 
 // Cautions are the one copy of the safety and responsibility cautions that
@@ -26,28 +26,13 @@ func Grouped(v float64) string { return groupedDec(v, 0) }
 // 1,800.0; "—" for NaN and ±Inf.
 func GroupedDec(v float64, dec int) string { return groupedDec(v, dec) }
 
-// groupedDec writes v with dec decimals and thousands separators.
+// groupedDec writes v with dec decimals and thousands separators; "—"
+// where there is no number.
 func groupedDec(v float64, dec int) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return "—"
 	}
-	s := fmt.Sprintf("%.*f", dec, math.Abs(v))
-	whole, frac, _ := strings.Cut(s, ".")
-	var b strings.Builder
-	if v < 0 && strings.Trim(s, "0.") != "" {
-		b.WriteByte('-')
-	}
-	for i, d := range whole {
-		if i > 0 && (len(whole)-i)%3 == 0 {
-			b.WriteByte(',')
-		}
-		b.WriteRune(d)
-	}
-	if frac != "" {
-		b.WriteByte('.')
-		b.WriteString(frac)
-	}
-	return b.String()
+	return optimize.Thousands(v, dec)
 }
 
 // recommendation writes the one-paragraph recommendation from the result's
