@@ -1,19 +1,17 @@
 package optimize
 
-import (
-	"math"
-	"slices"
-)
+import "math"
 
 // branchAndBound finds the cheapest vector of running counts at flow Q
 // (required head hr) under a constraint, and the states it evaluated
-// (candidates for the head search). Vectors are listed by a branch and
-// bound over the models (branch.go) with lower bounds on their input
-// (bound.go) and evaluated from the lowest bound up; evaluation stops at
-// the first vector whose bound exceeds the best input found (with the
-// allowance boundSlack), since no later vector can beat it. The first
-// listing goes only firstRatio above the least bound; a second one lists
-// what lies between that and the best found when the best is above it.
+// (candidates for the head search). It is a best-first branch and bound
+// over the models (branch.go): the frontier holds partial vectors with a
+// lower bound on every vector below them (bound.go), the least-bound item
+// is expanded (a partial vector) or evaluated (a whole one) next, and the
+// search stops when the least bound left exceeds the best input found
+// (with the allowance boundSlack), since nothing left can beat it. Whole
+// vectors are thus evaluated lowest bound first, and only the nodes whose
+// bound lies below the answer are ever expanded.
 //
 // Each vector is evaluated as before the bounds: at the required head
 // with the variable units' flow split in proportion to their ranges (exact
@@ -22,7 +20,7 @@ import (
 // the best (bentMargin where a model's power is not convex), with the full
 // equal-marginal split.
 func (s *Solver) branchAndBound(Q, hr float64, c Constraint) (*state, []*state) {
-	s.leaves, s.leafCnt, s.near = s.leaves[:0], s.leafCnt[:0], s.near[:0]
+	s.items, s.heap, s.leafCnt, s.near = s.items[:0], s.heap[:0], s.leafCnt[:0], s.near[:0]
 	if c.Counts != nil {
 		return s.oneVector(Q, hr, c.Counts), s.near
 	}
@@ -31,19 +29,23 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint) (*state, []*state) 
 	}
 	s.prepareBounds(Q, hr)
 	b := s.prepareBranch(Q, hr, c)
-	b.thr, b.floor, b.ratio = math.Inf(1), math.Inf(-1), firstRatio
-	thr := b.list()
+	clear(b.cur)
+	b.push(item{bound: b.nodeBound(0, &node{})})
 	var best *state
-	best = s.evaluate(Q, hr, thr, best)
-	if best == nil || best.power*(1+boundSlack) > thr {
-		b.floor, b.ratio = thr, 0
-		b.thr = math.Inf(1)
-		if best != nil {
-			b.thr = best.power * (1 + boundSlack)
+	thr := math.Inf(1)
+	for len(s.heap) > 0 {
+		it := b.pop()
+		if it.bound > thr {
+			break
 		}
-		s.leaves = s.leaves[:0]
-		b.list()
-		best = s.evaluate(Q, hr, b.thr, best)
+		if it.depth < len(s.units) {
+			b.expand(it, thr)
+			continue
+		}
+		cnt := s.leafCnt[it.off : it.off+len(s.units) : it.off+len(s.units)]
+		if best = s.evaluate(Q, hr, cnt, it.fits, best); best != nil {
+			thr = best.power * (1 + boundSlack)
+		}
 	}
 	return best, s.near
 }
@@ -54,53 +56,37 @@ func (s *Solver) oneVector(Q, hr float64, cnt []int) *state {
 	if sd != fits && !s.mayRise(cnt, Q, hr) {
 		return nil
 	}
-	s.leaves = append(s.leaves, leaf{off: 0, fits: sd == fits})
-	s.leafCnt = append(s.leafCnt, cnt...)
-	return s.evaluate(Q, hr, math.Inf(1), nil)
+	return s.evaluate(Q, hr, cnt, sd == fits, nil)
 }
 
-// evaluate solves the listed vectors bounded at or below thr, lowest bound
-// first, and returns the best state (best on entry, if none beats it).
-func (s *Solver) evaluate(Q, hr, thr float64, best *state) *state {
-	slices.SortStableFunc(s.leaves, func(a, b leaf) int {
-		switch {
-		case a.bound < b.bound:
-			return -1
-		case a.bound > b.bound:
-			return 1
-		}
-		return 0
-	})
+// evaluate solves one vector (fitsAtHr: it serves the flow at the required
+// head) and returns the better of its state and best; every state it
+// solves in full is kept in s.near.
+func (s *Solver) evaluate(Q, hr float64, cnt []int, fitsAtHr bool, best *state) *state {
 	n := len(s.units)
-	for _, lf := range s.leaves {
-		if lf.bound > thr || (best != nil && lf.bound > best.power*(1+boundSlack)) {
-			break
+	if fitsAtHr && best != nil && len(s.mb) == n &&
+		s.refine(cnt, Q, s.br.rgq) > best.power*(1+boundSlack) {
+		return best // its own multiplier's bound puts it out of reach
+	}
+	st := s.proportionalAt(cnt, Q, hr, fitsAtHr, best)
+	if st == nil {
+		return best
+	}
+	if s.variableModels(cnt) > 1 {
+		if best != nil && st.power > quickMargin*best.power &&
+			(st.power > bentMargin*best.power || s.convexAt(st)) {
+			// Its proportional split says it is far off (for a model
+			// whose power is not convex the best split may lie far from
+			// the proportional one: bentMargin).
+			return best
 		}
-		cnt := s.leafCnt[lf.off : lf.off+n : lf.off+n]
-		if lf.fits && best != nil && len(s.mb) == n &&
-			s.refine(cnt, Q, s.br.rgq) > best.power*(1+boundSlack) {
-			continue // its own multiplier's bound puts it out of reach
+		if full, sd := s.atHeadMode(st.counts, Q, st.h, splitGlobal); sd == fits {
+			st = full
 		}
-		st := s.proportionalAt(cnt, Q, hr, lf.fits, best)
-		if st == nil {
-			continue
-		}
-		if s.variableModels(cnt) > 1 {
-			if best != nil && st.power > quickMargin*best.power &&
-				(st.power > bentMargin*best.power || s.convexAt(st)) {
-				// Its proportional split says it is far off (for a model
-				// whose power is not convex the best split may lie far from
-				// the proportional one: bentMargin).
-				continue
-			}
-			if full, sd := s.atHeadMode(st.counts, Q, st.h, splitGlobal); sd == fits {
-				st = full
-			}
-		}
-		s.near = append(s.near, st)
-		if best == nil || st.power < best.power {
-			best = st
-		}
+	}
+	s.near = append(s.near, st)
+	if best == nil || st.power < best.power {
+		best = st
 	}
 	return best
 }

@@ -7,25 +7,13 @@ import (
 	"wattstage/curves"
 )
 
-// leaf is one vector of running counts that may serve the flow: at the
-// required head (fits) or at a higher one (rising), with a lower bound on
-// its input (bound.go).
-type leaf struct {
-	off   int // its counts are s.leafCnt[off : off+len(models)]
-	bound float64
-	fits  bool
-}
-
 // branch is the state of one branch and bound over the models' counts.
 type branch struct {
 	s      *Solver
 	Q, rgq float64 // flow, ρ g Q h_r
 	c      Constraint
-	thr    float64 // leaves bounded above thr are left out
-	floor  float64 // ... and leaves bounded at or below floor (listed before)
-	ratio  float64 // thr follows ratio × the least leaf bound found; 0 = fixed
-	cur    []int
-	nodes  []node // the partial sums at each depth of the walk
+	cur    []int // the counts of the node being expanded, then of its child
+	child  node  // scratch: the partial sums of the child being built
 	// Suffix sums over the models from depth i on: the least Σ n_j g_j(λ_k)
 	// (each n_j from 0 to its count), the most top-speed flow, the most
 	// units, the best pump efficiency.
@@ -41,17 +29,12 @@ type branch struct {
 // of the best state found.
 const boundSlack = 2e-3
 
-// firstRatio is how far above the least bound of every leaf the first
-// listing goes: the best state is usually within it (the bounds at the
-// best multiplier are tight for the vectors that matter).
-const firstRatio = 1.04
-
 // prepareBranch fills the suffix sums of a solve (after prepareBounds).
 func (s *Solver) prepareBranch(Q, hr float64, c Constraint) *branch {
 	n := len(s.units)
 	b := &s.br
 	*b = branch{s: s, Q: Q, rgq: s.rho * curves.Gravity * Q * hr, c: c,
-		cur: slices.Grow(b.cur[:0], n)[:n], nodes: b.nodes, sufG: b.sufG[:0], sufGx: b.sufGx[:0], sufTop: b.sufTop[:0],
+		cur: slices.Grow(b.cur[:0], n)[:n], sufG: b.sufG[:0], sufGx: b.sufGx[:0], sufTop: b.sufTop[:0],
 		sufCount: b.sufCount[:0], sufEta: b.sufEta[:0]}
 	b.sufG = slices.Grow(b.sufG, n+1)[:n+1]
 	b.sufGx = slices.Grow(b.sufGx, n+1)[:n+1]
@@ -87,7 +70,7 @@ func (s *Solver) prepareBranch(Q, hr float64, c Constraint) *branch {
 	return b
 }
 
-// node is the partial sums of a branch down to one depth.
+// node is the partial sums of the models assigned down to one depth.
 type node struct {
 	g, gx      [lambdas]float64
 	lo, hi     float64
@@ -99,35 +82,84 @@ type node struct {
 	risingDead bool // a model cannot reach h_r at top speed
 }
 
-// list appends to s.leaves every leaf whose bound is in (floor, thr], and
-// returns the threshold it ended with (lower than thr when ratio tightened
-// it).
-func (b *branch) list() float64 {
-	if cap(b.nodes) < len(b.s.units)+1 {
-		b.nodes = make([]node, len(b.s.units)+1)
-	}
-	b.nodes = b.nodes[:len(b.s.units)+1]
-	b.nodes[0] = node{}
-	b.walk(0, &b.nodes[0])
-	return b.thr
+// item is one entry of the frontier of the best-first search: a node of
+// the models' counts down to a depth (every model assigned: a leaf, one
+// vector), with a lower bound on every vector below it.
+type item struct {
+	bound float64
+	seq   int  // push order: of equal bounds, the first pushed pops first
+	depth int  // models assigned; len(models) for a leaf
+	off   int  // its counts are s.leafCnt[off : off+len(models)]
+	fits  bool // a leaf that serves the flow at the required head
+	nd    node
 }
 
-func (b *branch) walk(i int, nd *node) {
+// push adds an item to the frontier (a binary heap on bound, then seq).
+func (b *branch) push(it item) {
 	s := b.s
-	if i == len(s.units) {
-		b.leafAt(nd)
-		return
+	it.seq = len(s.items)
+	it.off = len(s.leafCnt)
+	s.leafCnt = append(s.leafCnt, b.cur...)
+	s.items = append(s.items, it)
+	h := append(s.heap, int32(it.seq))
+	for j := len(h) - 1; j > 0; {
+		p := (j - 1) / 2
+		if !s.before(h[j], h[p]) {
+			break
+		}
+		h[j], h[p] = h[p], h[j]
+		j = p
 	}
+	s.heap = h
+}
+
+// pop takes the least-bound item off the frontier.
+func (b *branch) pop() *item {
+	s := b.s
+	h := s.heap
+	top := h[0]
+	last := len(h) - 1
+	h[0] = h[last]
+	h = h[:last]
+	for j := 0; ; {
+		l, m := 2*j+1, j
+		if l < len(h) && s.before(h[l], h[m]) {
+			m = l
+		}
+		if r := l + 1; r < len(h) && s.before(h[r], h[m]) {
+			m = r
+		}
+		if m == j {
+			break
+		}
+		h[j], h[m] = h[m], h[j]
+		j = m
+	}
+	s.heap = h
+	return &s.items[top]
+}
+
+func (s *Solver) before(a, b int32) bool {
+	x, y := &s.items[a], &s.items[b]
+	return x.bound < y.bound || (x.bound == y.bound && x.seq < y.seq)
+}
+
+// expand pushes the children of a node at depth i (models 0..i-1
+// assigned): one for each count of model i whose bound is within thr;
+// a child at the last depth is a leaf.
+func (b *branch) expand(it *item, thr float64) {
+	s := b.s
+	i, nd := it.depth, it.nd
+	copy(b.cur, s.leafCnt[it.off:it.off+len(s.units)])
 	m, cnt := &s.mb[i], s.plant.Models[i].Count
 	lo, hi := 0, cnt
 	if b.c.Counts != nil {
 		lo, hi = b.c.Counts[i], b.c.Counts[i]
 	}
-	defer func() { b.cur[i] = 0 }()
+	ch := &b.child
 	for n := lo; n <= hi; n++ {
 		b.cur[i] = n
-		ch := &b.nodes[i+1] // one node per depth: no allocation
-		*ch = *nd
+		*ch = nd
 		if n > 0 {
 			fn := float64(n)
 			ch.units += n
@@ -138,7 +170,7 @@ func (b *branch) walk(i int, nd *node) {
 				ch.risingDead = true
 			}
 			if ch.fitsDead && ch.risingDead {
-				return // more units of this model change nothing
+				break // more units of this model change nothing
 			}
 			for k := range lambdas {
 				ch.g[k] += fn * m.g[k]
@@ -159,14 +191,17 @@ func (b *branch) walk(i int, nd *node) {
 		if ch.lo > b.Q*(1+1e-10) {
 			ch.fitsDead = true
 		}
-		if b.nodeBound(i+1, ch) > b.thr {
-			if ch.fitsDead && ch.pmin > b.thr {
-				return // every further unit only adds to the floor
-			}
+		if i+1 == len(s.units) {
+			b.leafAt(ch, thr)
 			continue
 		}
-		b.walk(i+1, ch)
+		if bd := b.nodeBound(i+1, ch); bd <= thr {
+			b.push(item{bound: bd, depth: i + 1, nd: *ch})
+		} else if ch.fitsDead && ch.pmin > thr {
+			break // every further unit only adds to the floor
+		}
 	}
+	b.cur[i] = 0
 }
 
 // nodeBound is the least bound of any leaf below a node whose models from
@@ -220,7 +255,10 @@ func (b *branch) riseBound(i int, nd *node) float64 {
 // at most 1.2 % below it; the margin is 5 %.
 const riseMargin = 0.95
 
-func (b *branch) leafAt(nd *node) {
+// leafAt pushes a vector (every model assigned) that may serve the flow,
+// with its bound: at the required head when it fits there, else over every
+// head from h_r up.
+func (b *branch) leafAt(nd *node, thr float64) {
 	if nd.units == 0 {
 		return
 	}
@@ -236,15 +274,10 @@ func (b *branch) leafAt(nd *node) {
 	default:
 		return
 	}
-	if bound > b.thr || bound <= b.floor {
+	if bound > thr {
 		return
 	}
-	s := b.s
-	s.leaves = append(s.leaves, leaf{off: len(s.leafCnt), bound: bound, fits: fits})
-	s.leafCnt = append(s.leafCnt, b.cur...)
-	if b.ratio > 0 {
-		b.thr = min(b.thr, b.ratio*bound)
-	}
+	b.push(item{bound: bound, depth: len(b.s.units), fits: fits})
 }
 
 // refine is a fitting vector's Lagrangian bound at its own best

@@ -67,7 +67,8 @@ type Solver struct {
 	mb      []modelBound
 	scans   []powerScan
 	br      branch
-	leaves  []leaf
+	items   []item  // the frontier's items, in push order
+	heap    []int32 // the frontier: indices into items, a binary heap
 	leafCnt []int
 	near    []*state
 
