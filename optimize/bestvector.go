@@ -19,7 +19,7 @@ import "math"
 // multi-model vectors whose proportional split is within quickMargin of
 // the best (bentMargin where a model's power is not convex), with the full
 // equal-marginal split.
-func (s *Solver) branchAndBound(Q, hr float64, c Constraint) (*state, []*state) {
+func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*state, []*state) {
 	s.items, s.heap, s.leafCnt, s.near = s.items[:0], s.heap[:0], s.leafCnt[:0], s.near[:0]
 	if c.Counts != nil {
 		return s.oneVector(Q, hr, c.Counts), s.near
@@ -28,6 +28,7 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint) (*state, []*state) 
 		return s.everyVector(Q, hr, c)
 	}
 	s.prepareBounds(Q, hr)
+	s.bounded = true
 	b := s.prepareBranch(Q, hr, c)
 	clear(b.cur)
 	b.push(item{bound: b.nodeBound(0, &node{})})
@@ -43,8 +44,8 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint) (*state, []*state) 
 			continue
 		}
 		cnt := s.leafCnt[it.off : it.off+len(s.units) : it.off+len(s.units)]
-		if best = s.evaluate(Q, hr, cnt, it.fits, best); best != nil {
-			thr = best.power * (1 + boundSlack)
+		if best = s.evaluate(Q, hr, cnt, it.fits, best, keep); best != nil {
+			thr = best.power * (1 + keep) * (1 + boundSlack)
 		}
 	}
 	return best, s.near
@@ -56,16 +57,18 @@ func (s *Solver) oneVector(Q, hr float64, cnt []int) *state {
 	if sd != fits && !s.mayRise(cnt, Q, hr) {
 		return nil
 	}
-	return s.evaluate(Q, hr, cnt, sd == fits, nil)
+	return s.evaluate(Q, hr, cnt, sd == fits, nil, 0)
 }
 
 // evaluate solves one vector (fitsAtHr: it serves the flow at the required
 // head) and returns the better of its state and best; every state it
-// solves in full is kept in s.near.
-func (s *Solver) evaluate(Q, hr float64, cnt []int, fitsAtHr bool, best *state) *state {
-	n := len(s.units)
-	if fitsAtHr && best != nil && len(s.mb) == n &&
-		s.refine(cnt, Q, s.br.rgq) > best.power*(1+boundSlack) {
+// solves in full is kept in s.near. A vector is given up where a bound or
+// its proportional split shows it cannot come within keep of best (0: that
+// it cannot beat best). The bounds of this solve (s.mb) are used only when
+// s.bounded says they were prepared for it.
+func (s *Solver) evaluate(Q, hr float64, cnt []int, fitsAtHr bool, best *state, keep float64) *state {
+	if fitsAtHr && best != nil && s.bounded &&
+		s.refine(cnt, Q, s.br.rgq) > best.power*(1+keep)*(1+boundSlack) {
 		return best // its own multiplier's bound puts it out of reach
 	}
 	st := s.proportionalAt(cnt, Q, hr, fitsAtHr, best)
@@ -73,8 +76,8 @@ func (s *Solver) evaluate(Q, hr float64, cnt []int, fitsAtHr bool, best *state) 
 		return best
 	}
 	if s.variableModels(cnt) > 1 {
-		if best != nil && st.power > quickMargin*best.power &&
-			(st.power > bentMargin*best.power || s.convexAt(st)) {
+		if best != nil && st.power > (1+keep)*quickMargin*best.power &&
+			(st.power > (1+keep)*bentMargin*best.power || s.convexAt(st)) {
 			// Its proportional split says it is far off (for a model
 			// whose power is not convex the best split may lie far from
 			// the proportional one: bentMargin).

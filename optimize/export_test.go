@@ -3,3 +3,19 @@ package optimize
 // SetEveryVector makes the solver evaluate every count vector, without the
 // bounds of bound.go, so that tests can compare the two.
 func SetEveryVector(s *Solver, on bool) { s.exhaustive = on }
+
+// SetTable turns the staging table over the load flow (flowtable.go) on or
+// off, so that tests can compare a solve with and without it.
+func SetTable(s *Solver, on bool) { s.noTable = !on }
+
+// TableEnds returns how many ends of the staging table a solver has
+// computed and how many vectors they keep in all.
+func TableEnds(s *Solver) (ends, vectors int) {
+	for _, e := range s.table.ends {
+		if e.done {
+			ends++
+			vectors += len(e.counts) / len(s.units)
+		}
+	}
+	return ends, vectors
+}

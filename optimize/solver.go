@@ -64,13 +64,17 @@ type Solver struct {
 
 	// Per solve: each model's bounds at the required head, the branch and
 	// bound over the counts, and the vectors it lists (bound.go, branch.go).
-	mb      []modelBound
-	scans   []powerScan
-	br      branch
-	items   []item  // the frontier's items, in push order
-	heap    []int32 // the frontier: indices into items, a binary heap
-	leafCnt []int
-	near    []*state
+	mb       []modelBound
+	scans    []powerScan
+	br       branch
+	items    []item  // the frontier's items, in push order
+	heap     []int32 // the frontier: indices into items, a binary heap
+	leafCnt  []int
+	bounded  bool // s.mb holds the bounds of the solve in progress
+	table    flowTable
+	noTable  bool  // solve without the table (tests)
+	tableBuf []int // scratch: a solve's candidates from the table
+	near     []*state
 
 	// Per model: whether its power is convex on its span at head cvxH
 	// (most states of a solve share the required head).
@@ -171,7 +175,11 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 	}
 	Q := float64(pumped)
 	s.resetGrid(hr)
-	best, near := s.branchAndBound(Q, hr, c)
+	s.bounded = false
+	best, near := s.fromTable(float64(load), Q, hr, c)
+	if best == nil {
+		best, near = s.branchAndBound(Q, hr, c, 0)
+	}
 	if best == nil {
 		return s.unmetOnly(res, Q, hr, c)
 	}
@@ -179,7 +187,7 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 	// flow floor binds (docs/sources.md §10): search it for the combos near the best.
 	searched := false // best comes from the head search
 	for _, st := range near {
-		if st.power > best.power*1.02 {
+		if st.power > best.power*headSearchMargin {
 			continue
 		}
 		if better := s.searchHead(st, Q, hr); better != nil && better.power < best.power {
@@ -219,6 +227,10 @@ func (c Constraint) allows(cnt []int) bool {
 	}
 	return true
 }
+
+// headSearchMargin is how far above the best state at the required head a
+// vector's state may be and still have the higher heads searched.
+const headSearchMargin = 1.02
 
 // quickMargin bounds how far above the best state a combo's proportional
 // split may be and still get the full allocation (about three times the
