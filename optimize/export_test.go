@@ -11,11 +11,17 @@ func SetTable(s *Solver, on bool) { s.noTable = !on }
 // TableEnds returns how many ends of the staging table a solver has
 // computed and how many vectors they keep in all.
 func TableEnds(s *Solver) (ends, vectors int) {
-	for _, e := range s.table.ends {
-		if e.done {
-			ends++
-			vectors += len(e.counts) / len(s.units)
+	for _, byTotal := range s.table.ends {
+		for _, e := range byTotal {
+			if e.done {
+				ends++
+				vectors += len(e.counts) / len(s.units)
+			}
 		}
 	}
 	return ends, vectors
 }
+
+// TableMisses returns how many solves the staging table left to the branch
+// and bound.
+func TableMisses(s *Solver) int { return s.tableMisses }

@@ -64,17 +64,18 @@ type Solver struct {
 
 	// Per solve: each model's bounds at the required head, the branch and
 	// bound over the counts, and the vectors it lists (bound.go, branch.go).
-	mb       []modelBound
-	scans    []powerScan
-	br       branch
-	items    []item  // the frontier's items, in push order
-	heap     []int32 // the frontier: indices into items, a binary heap
-	leafCnt  []int
-	bounded  bool // s.mb holds the bounds of the solve in progress
-	table    flowTable
-	noTable  bool  // solve without the table (tests)
-	tableBuf []int // scratch: a solve's candidates from the table
-	near     []*state
+	mb          []modelBound
+	scans       []powerScan
+	br          branch
+	items       []item  // the frontier's items, in push order
+	heap        []int32 // the frontier: indices into items, a binary heap
+	leafCnt     []int
+	bounded     bool // s.mb holds the bounds of the solve in progress
+	table       flowTable
+	noTable     bool  // solve without the table (tests)
+	tableMisses int   // solves the table left to the branch and bound
+	tableBuf    []int // scratch: a solve's candidates from the table
+	near        []*state
 
 	// Per model: whether its power is convex on its span at head cvxH
 	// (most states of a solve share the required head).
@@ -178,6 +179,7 @@ func (s *Solver) SolveWith(load curves.Flow, c Constraint) Result {
 	s.bounded = false
 	best, near := s.fromTable(float64(load), Q, hr, c)
 	if best == nil {
+		s.resetGrid(hr) // the table's ends may have set it to theirs
 		best, near = s.branchAndBound(Q, hr, c, 0)
 	}
 	if best == nil {
