@@ -178,13 +178,13 @@ type row struct {
 	cells    [4]string // cellTime, cellFlow, cellDP, cellPower
 	timeFrom int       // column (1-based) where the time cell starts, for messages
 	drop     Reason    // dropping reason; -1 while the row is good
-	t      time.Time
-	flow   float64 // m³/s
-	dp     float64 // m of fluid
-	power  float64 // W
-	hasDP  bool
-	hasPow bool
-	notes  []Reason // keeping reasons
+	t        time.Time
+	flow     float64 // m³/s
+	dp       float64 // m of fluid
+	power    float64 // W
+	hasDP    bool
+	hasPow   bool
+	notes    []Reason // keeping reasons
 }
 
 // Indices of row.cells.
