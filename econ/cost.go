@@ -97,14 +97,8 @@ func Cost(t Tariff, series []Sample) (*Bill, error) {
 	if timed != 0 && timed != len(series) {
 		return nil, fmt.Errorf("%w: %d of %d samples are time-stamped; give all or none a start", ErrSeries, timed, len(series))
 	}
-	b := &Bill{Timed: timed > 0 && timed == len(series), SampleCost: make([]float64, len(series))}
-	if len(t.Periods) > 0 {
-		b.Periods = make([]PeriodUse, len(t.Periods)+1)
-		for i := range t.Periods {
-			b.Periods[i].Name = t.PeriodName(i)
-		}
-		b.Periods[len(t.Periods)].Name = t.PeriodName(-1)
-	}
+	b := newBill(&t, timed > 0 && timed == len(series))
+	b.SampleCost = make([]float64, len(series))
 	if b.Timed {
 		b.costTimed(&t, series)
 	} else {
@@ -113,6 +107,19 @@ func Cost(t Tariff, series []Sample) (*Bill, error) {
 	b.Total = b.EnergyCost + b.DemandCost
 	b.Emissions = b.Energy * t.EmissionsFactor
 	return b, nil
+}
+
+// newBill is an empty bill with a slot for each time-of-use period.
+func newBill(t *Tariff, timed bool) *Bill {
+	b := &Bill{Timed: timed}
+	if len(t.Periods) > 0 {
+		b.Periods = make([]PeriodUse, len(t.Periods)+1)
+		for i := range t.Periods {
+			b.Periods[i].Name = t.PeriodName(i)
+		}
+		b.Periods[len(t.Periods)].Name = t.PeriodName(-1)
+	}
+	return b
 }
 
 // periodSlot is where a period's use is kept in Bill.Periods: the periods
@@ -125,71 +132,11 @@ func (b *Bill) periodSlot(i int) *PeriodUse {
 }
 
 func (b *Bill) costTimed(t *Tariff, series []Sample) {
-	months := map[[2]int]int{} // (year, month) → index in b.Months
-	longest := 0.0
+	m := &Meter{t: *t, b: b, months: map[[2]int]int{}}
 	for si, s := range series {
-		kw := float64(s.Power) / curves.KW
-		longest = max(longest, s.Hours)
-		if s.Hours > 0 {
-			b.PeakKW = max(b.PeakKW, kw)
-		}
-		b.Hours += s.Hours
-		end := s.Start.Add(time.Duration(s.Hours * float64(time.Hour)))
-		for from := s.Start; from.Before(end); {
-			y, mo, _ := from.Date()
-			// the local hour ends an hour after it started; subtracting the
-			// wall-clock minutes keeps this right across clock changes
-			next := from.Add(time.Hour - time.Duration(from.Minute())*time.Minute -
-				time.Duration(from.Second())*time.Second - time.Duration(from.Nanosecond()))
-			to := minTime(next, end)
-			h := to.Sub(from).Hours()
-			wd := from.Weekday()
-			price, pi := t.price(from.Hour(), wd == time.Saturday || wd == time.Sunday)
-			e := kw * h
-			b.Energy += e
-			b.EnergyCost += e * price
-			b.SampleCost[si] += e * price
-			if b.Periods != nil {
-				u := b.periodSlot(pi)
-				u.Hours += h
-				u.Energy += e
-				u.Cost += e * price
-			}
-			key := [2]int{y, int(mo)}
-			mi, ok := months[key]
-			if !ok {
-				mi = len(b.Months)
-				months[key] = mi
-				b.Months = append(b.Months, Month{Year: y, Month: mo})
-			}
-			m := &b.Months[mi]
-			m.Hours += h
-			m.Energy += e
-			m.EnergyCost += e * price
-			m.PeakKW = max(m.PeakKW, kw)
-			from = to
-		}
+		b.SampleCost[si] = m.price(s)
 	}
-	sortMonths(b.Months)
-	for i := range b.Months {
-		m := &b.Months[i]
-		m.DemandCost = m.PeakKW * t.DemandCharge
-		b.DemandCost += m.DemandCost
-	}
-	if t.DemandCharge > 0 && longest > 0.25+1e-9 {
-		b.Warnings = append(b.Warnings, fmt.Sprintf(
-			"demand charged on %g-hour mean power; a utility meter's 15-minute peak is usually somewhat higher", longest))
-	}
-	if t.DemandCharge > 0 && len(b.Months) > 0 {
-		if f := b.Months[0]; f.Hours < 0.9*monthHours(f.Year, f.Month) {
-			b.Warnings = append(b.Warnings, fmt.Sprintf("%s %d is only partly covered (%.0f h): the period's bill charges its whole month of demand; a year weights it by the share covered", f.Month, f.Year, f.Hours))
-		}
-		if n := len(b.Months); n > 1 {
-			if l := b.Months[n-1]; l.Hours < 0.9*monthHours(l.Year, l.Month) {
-				b.Warnings = append(b.Warnings, fmt.Sprintf("%s %d is only partly covered (%.0f h): the period's bill charges its whole month of demand; a year weights it by the share covered", l.Month, l.Year, l.Hours))
-			}
-		}
-	}
+	m.finish()
 }
 
 func monthHours(y int, m time.Month) float64 {

@@ -428,12 +428,12 @@ func measuredChart(res *study.Result) workbook.Chart {
 			st = &res.Strategies[i]
 		}
 	}
-	if st == nil {
+	if st == nil || !st.SeriesKept() {
 		return workbook.Chart{}
 	}
 	var idx []int
 	for i, step := range res.Steps {
-		if !math.IsNaN(step.MeasuredKW) && st.Run.Points[i].Status == optimize.Served {
+		if !math.IsNaN(step.MeasuredKW) && st.Served(i) {
 			idx = append(idx, i)
 		}
 	}

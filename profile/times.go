@@ -136,7 +136,7 @@ func (p *reader) chooseLayout(rows []*row) string {
 	var stamps []string
 	for _, r := range rows {
 		if r.drop < 0 {
-			stamps = append(stamps, r.fields[p.ti])
+			stamps = append(stamps, r.cells[cellTime])
 		}
 	}
 	const probe = 100
@@ -173,9 +173,9 @@ func (p *reader) chooseLayout(rows []*row) string {
 			r := firstStamp(rows)
 			what := map[string]string{unixLayout: "seconds since 1970-01-01 UTC", unixMSLayout: "milliseconds since 1970-01-01 UTC",
 				excelLayout: "spreadsheet serial dates (days since 1899-12-30, wall-clock time)"}[lay]
-			t, _ := parseStamp(lay, r.fields[p.ti])
+			t, _ := parseStamp(lay, r.cells[cellTime])
 			p.warn(r.line, "numeric stamps such as %q read as %s (%s); give time_format %s to say so, or another if that is wrong",
-				r.fields[p.ti], what, t.Format("2006-01-02 15:04:05"), lay)
+				r.cells[cellTime], what, t.Format("2006-01-02 15:04:05"), lay)
 		}
 		return lay
 	}
@@ -184,7 +184,7 @@ func (p *reader) chooseLayout(rows []*row) string {
 			if l.layout == tw && counts[i] == counts[best] {
 				r := firstStamp(rows)
 				p.warn(r.line, "dates such as %q read as %s; give the trend's time format if that is wrong",
-					r.fields[p.ti], dayOrder(layouts[best].layout))
+					r.cells[cellTime], dayOrder(layouts[best].layout))
 			}
 		}
 	}
@@ -226,12 +226,12 @@ func (p *reader) parseTimes(rows []*row) error {
 		}
 		if r.drop < 0 {
 			hint := `give the trend's time_format: a Go layout written with the reference time (e.g. "2006-01-02 15:04"), or unix, unix_ms or excel for numbers`
-			if _, err := strconv.ParseFloat(r.fields[p.ti], 64); err == nil {
+			if _, err := strconv.ParseFloat(r.cells[cellTime], 64); err == nil {
 				hint = "the numbers are not seconds (10⁸–10¹¹) or milliseconds (10¹¹–10¹⁴) since 1970, nor spreadsheet serial dates (20000–110000): " +
 					"export the stamps as dates, or give time_format unix, unix_ms or excel if one of them is meant"
 			}
-			return p.errAt(r.line, r.starts[p.ti], p.spec.TimeColumn, fmt.Errorf("%w: %s in column %q; %s",
-				ErrTimeFormat, quoteCut(r.fields[p.ti]), p.spec.TimeColumn, hint))
+			return p.errAt(r.line, r.timeFrom, p.spec.TimeColumn, fmt.Errorf("%w: %s in column %q; %s",
+				ErrTimeFormat, quoteCut(r.cells[cellTime]), p.spec.TimeColumn, hint))
 		}
 		return nil // every row already dropped for another reason
 	}
@@ -242,7 +242,7 @@ func (p *reader) parseTimes(rows []*row) error {
 		if r.drop >= 0 {
 			continue
 		}
-		t, err := parseStamp(lay, r.fields[p.ti])
+		t, err := parseStamp(lay, r.cells[cellTime])
 		if err != nil || t.Year() < minYear || t.Year() > maxYear {
 			r.drop = BadTime
 			continue

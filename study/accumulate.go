@@ -5,27 +5,42 @@ import (
 	"sort"
 
 	"wattstage/curves"
+	"wattstage/econ"
 	"wattstage/optimize"
 )
 
 // KeepStatesUpTo is the number of steps up to which a strategy's every
 // state is kept in Strategy.Run.Points (for the load points of bins, the
 // tests and the JSON detail); above it, a study keeps aggregates only, so a
-// long trend runs in memory that does not grow with its length beyond a
-// few numbers a step.
+// long trend runs in memory that does not grow with its length beyond the
+// steps themselves and two power series (see keepSeries).
 const KeepStatesUpTo = 10_000
 
 // accumulator gathers what the study needs from a strategy's states as
-// they are solved: the energy, the unit-hours by region and the load-point
-// groups with a typical state each.
+// they are solved: the energy and its price, the unit-hours by region, the
+// load-point groups with a typical state each, the NPSH check and the
+// hours it draws less than the lowest-power staging. Per-step records
+// (states, powers, costs) are kept only when asked.
 type accumulator struct {
 	r      *Result
 	e      Energy
-	served []bool
 	reg    Regions
-	keep   bool
+	keep   bool // every state (Run.Points)
+	series bool // every step's input and whether it was served (Energy.KW, served)
+	served []bool
 	points []optimize.Result
+	price  *pricer
 	groups map[int]*group
+	ref    *Strategy // the lowest-power staging, run before; nil for itself
+	beaten beaten
+	npsh   *npshRun // nil when the check is not made
+}
+
+// beaten is where a strategy draws less than the lowest-power staging
+// (both serving the step): the hours and the largest shortfall, a fraction
+// of the lowest-power staging's input.
+type beaten struct {
+	hours, worst float64
 }
 
 // group is a flow group of a trend solved interval by interval.
@@ -37,14 +52,22 @@ type group struct {
 	first   optimize.Result
 }
 
-func newAccumulator(r *Result, keep bool) *accumulator {
+func newAccumulator(r *Result, keep, series bool, ref *Strategy) (*accumulator, error) {
 	n := len(r.Steps)
-	a := &accumulator{r: r, keep: keep, served: make([]bool, n), groups: map[int]*group{},
-		e: Energy{UnmetBy: map[optimize.Limit]float64{}, KW: make([]float64, n)}}
+	series = series || keep
+	pr, err := newPricer(r, r.Steps, keep)
+	if err != nil {
+		return nil, err
+	}
+	a := &accumulator{r: r, keep: keep, series: series, price: pr, groups: map[int]*group{}, ref: ref,
+		e: Energy{UnmetBy: map[optimize.Limit]float64{}}}
 	if keep {
 		a.points = make([]optimize.Result, 0, n)
 	}
-	return a
+	if series {
+		a.served, a.e.KW = make([]bool, n), make([]float64, n)
+	}
+	return a, nil
 }
 
 // groupKey is the flow group of a load: k for [k·w, (k+1)·w), −1 for zero.
@@ -63,10 +86,9 @@ func (a *accumulator) visit(i int, res *optimize.Result) {
 		a.points = append(a.points, *res)
 	}
 	ok := res.Status == optimize.Served
-	a.served[i] = ok
+	kw := 0.0
 	if ok {
-		kw := float64(res.Power) / curves.KW
-		a.e.KW[i] = kw
+		kw = float64(res.Power) / curves.KW
 		a.e.KWh += kw * st.Hours
 		a.e.PeakKW = max(a.e.PeakKW, kw)
 		for _, u := range res.Units {
@@ -81,9 +103,21 @@ func (a *accumulator) visit(i int, res *optimize.Result) {
 				a.reg.Overload += st.Hours
 			}
 		}
+		if ref := a.ref; ref != nil && ref.served[i] && kw < ref.Energy.KW[i] {
+			lo := ref.Energy.KW[i]
+			a.beaten.hours += st.Hours
+			a.beaten.worst = math.Max(a.beaten.worst, (lo-kw)/lo)
+		}
 	} else {
 		a.e.HoursUnmet += st.Hours
 		a.e.UnmetBy[res.Limit] += st.Hours
+	}
+	if a.series {
+		a.served[i], a.e.KW[i] = ok, kw
+	}
+	cost := a.price.add(i, kw)
+	if a.npsh != nil {
+		a.npsh.visit(i, res)
 	}
 	if a.r.LoadBinWidth <= 0 {
 		return
@@ -100,7 +134,8 @@ func (a *accumulator) visit(i int, res *optimize.Result) {
 	g.lp.Steps++
 	g.lp.Hours += st.Hours
 	g.flowH += float64(st.Load) * st.Hours
-	g.lp.KWh += a.e.KW[i] * st.Hours
+	g.lp.KWh += kw * st.Hours
+	g.lp.Cost += cost
 	if !ok {
 		g.lp.HoursUnmet += st.Hours
 		return
@@ -114,7 +149,7 @@ func (a *accumulator) visit(i int, res *optimize.Result) {
 // loadPoints finishes the load points once the bill is known: each step
 // its own point (bins, or a trend solved in bins), or the flow groups of a
 // trend solved interval by interval. A point's cost is the tariff's energy
-// cost of its hours.
+// cost of its hours (a group's was added as its intervals were priced).
 func (a *accumulator) loadPoints(sampleCost []float64) []LoadPoint {
 	if a.r.LoadBinWidth <= 0 {
 		out := make([]LoadPoint, len(a.r.Steps))
@@ -127,9 +162,6 @@ func (a *accumulator) loadPoints(sampleCost []float64) []LoadPoint {
 			out[i] = lp
 		}
 		return out
-	}
-	for i, st := range a.r.Steps {
-		a.groups[a.groupKey(st.Load)].lp.Cost += sampleCost[i]
 	}
 	keys := make([]int, 0, len(a.groups))
 	for k := range a.groups {
@@ -154,10 +186,15 @@ func (a *accumulator) loadPoints(sampleCost []float64) []LoadPoint {
 	return out
 }
 
-// streamEnergy runs a strategy and totals its energy without keeping its
-// states (the savings range, the binning check).
-func streamEnergy(s optimize.Strategy, steps []optimize.Step, t *ticker) Energy {
-	e := Energy{UnmetBy: map[optimize.Limit]float64{}, KW: make([]float64, len(steps))}
+// streamAnnual runs a strategy over steps without keeping its states or
+// powers and returns its energy and its bill brought to a year (the
+// savings range, the binning check).
+func (r *Result) streamAnnual(s optimize.Strategy, steps []optimize.Step, t *ticker) (Energy, econ.Annual, error) {
+	e := Energy{UnmetBy: map[optimize.Limit]float64{}}
+	pr, err := newPricer(r, steps, false)
+	if err != nil {
+		return Energy{}, econ.Annual{}, err
+	}
 	run := s.Stream(steps, func(i int, res *optimize.Result) {
 		t.tick()
 		st := steps[i]
@@ -165,13 +202,18 @@ func streamEnergy(s optimize.Strategy, steps []optimize.Step, t *ticker) Energy 
 		if res.Status != optimize.Served {
 			e.HoursUnmet += st.Hours
 			e.UnmetBy[res.Limit] += st.Hours
+			pr.add(i, 0)
 			return
 		}
 		kw := float64(res.Power) / curves.KW
-		e.KW[i] = kw
 		e.KWh += kw * st.Hours
 		e.PeakKW = max(e.PeakKW, kw)
+		pr.add(i, kw)
 	})
 	e.Name, e.Changes, e.Drives = run.Name, run.Changes, run.Drives
-	return e
+	b, err := pr.bill()
+	if err != nil {
+		return Energy{}, econ.Annual{}, err
+	}
+	return e, b.Annualise(r.Period.Factor), nil
 }

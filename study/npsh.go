@@ -99,8 +99,10 @@ type NPSHShort struct {
 	Hours        float64 // hours of the period at the step or group
 }
 
-// checkNPSH runs the NPSH check over every strategy's run.
-func (r *Result) checkNPSH() *NPSHCheck {
+// npshSetup starts the NPSH check: what the file gives for it, and whether
+// it is made (Made); the strategies' operating points are then set against
+// the suction as they are solved (npshRun) and gathered by npshFinish.
+func (r *Result) npshSetup() *NPSHCheck {
 	p := r.Plant
 	c := &NPSHCheck{}
 	var with []string
@@ -124,42 +126,68 @@ func (r *Result) checkNPSH() *NPSHCheck {
 		c.DesignAvailable = p.Suction.Available(p.DesignFlow)
 		c.Note = p.Suction.Basis
 	}
+	return c
+}
+
+// npshRun sets one strategy's operating points against the suction as
+// they are solved, so that no state need be kept.
+type npshRun struct {
+	r      *Result
+	models []plant.Model // the models the states' indices refer to
+	ns     NPSHStrategy
+	short  map[[2]int]*shortPoint // the lowest-power staging's points below the margin; nil for the others
+}
+
+// newNPSHRun starts the check of one strategy; models are those of the
+// plant the strategy runs (a variant, for some).
+func (r *Result) newNPSHRun(k Keyed, models []plant.Model) *npshRun {
+	n := &npshRun{r: r, models: models, ns: NPSHStrategy{Key: k.Key, Name: k.Strategy.Name(), LowestRatio: math.NaN()}}
+	if k.Key == KeyLowest {
+		n.short = map[[2]int]*shortPoint{}
+	}
+	return n
+}
+
+func (n *npshRun) visit(i int, res *optimize.Result) {
+	st := n.r.Steps[i]
+	ns := &n.ns
+	for _, u := range NPSHAt(n.r.Plant, n.models, *res) {
+		ns.UnitHours += st.Hours
+		if !(u.Ratio >= ns.LowestRatio) {
+			ns.LowestRatio = u.Ratio
+		}
+		if u.Extrapolated {
+			ns.Extrapolated += st.Hours
+		}
+		if u.Ratio < 1 {
+			ns.Below += st.Hours
+		}
+		if !u.Short {
+			continue
+		}
+		ns.Short += st.Hours
+		if n.short != nil {
+			n.r.addShort(n.short, i, u, *res)
+		}
+	}
+}
+
+// npshFinish gathers every strategy's check, in the strategies' order, and
+// lists the lowest-power staging's short points, worst first.
+func (r *Result) npshFinish() {
+	c := r.NPSH
 	if !c.Made {
-		return c
+		return
 	}
 	for _, s := range r.Strategies {
-		models := p.Models
-		if s.Run.Plant != nil {
-			models = s.Run.Plant.Models
+		n := s.npsh
+		if n == nil {
+			continue
 		}
-		ns := NPSHStrategy{Key: s.Key, Name: s.Name, LowestRatio: math.NaN()}
-		short := map[[2]int]*shortPoint{}
-		for i, st := range r.Steps {
-			for _, u := range NPSHAt(p, models, s.Run.Points[i]) {
-				ns.UnitHours += st.Hours
-				if !(u.Ratio >= ns.LowestRatio) {
-					ns.LowestRatio = u.Ratio
-				}
-				if u.Extrapolated {
-					ns.Extrapolated += st.Hours
-				}
-				if u.Ratio < 1 {
-					ns.Below += st.Hours
-				}
-				if !u.Short {
-					continue
-				}
-				ns.Short += st.Hours
-				if s.Key == KeyLowest {
-					r.addShort(short, i, u, s.Run.Points[i])
-				}
-			}
-		}
-		c.Strategies = append(c.Strategies, ns)
-		if s.Key == KeyLowest {
-			for _, v := range short {
-				c.Short = append(c.Short, v.NPSHShort)
-			}
+		n.ns.Name = s.Name
+		c.Strategies = append(c.Strategies, n.ns)
+		for _, v := range n.short {
+			c.Short = append(c.Short, v.NPSHShort)
 		}
 	}
 	sort.Slice(c.Short, func(i, j int) bool {
@@ -168,7 +196,6 @@ func (r *Result) checkNPSH() *NPSHCheck {
 		}
 		return c.Short[i].Flow < c.Short[j].Flow
 	})
-	return c
 }
 
 // shortPoint is a short point being gathered: the last step whose hours

@@ -1,7 +1,6 @@
 package study
 
 import (
-	"wattstage/econ"
 	"wattstage/optimize"
 )
 
@@ -26,27 +25,16 @@ func (r *Result) rangeCase(s Sensitivity, base string) (RangeCase, error) {
 			baseline = k.Strategy
 		}
 	}
-	le := streamEnergy(lowest, r.Steps, r.tick)
-	be := streamEnergy(baseline, r.Steps, r.tick)
-	la, err := r.annual(le)
+	_, la, err := r.streamAnnual(lowest, r.Steps, r.tick)
 	if err != nil {
 		return RangeCase{}, err
 	}
-	ba, err := r.annual(be)
+	_, ba, err := r.streamAnnual(baseline, r.Steps, r.tick)
 	if err != nil {
 		return RangeCase{}, err
 	}
 	return RangeCase{Sensitivity: s, BaselineKWh: ba.Energy, LowestKWh: la.Energy, SavedKWh: ba.Energy - la.Energy,
 		SavedCost: ba.Total - la.Total}, nil
-}
-
-// annual prices an energy series under the tariff and brings it to a year.
-func (r *Result) annual(e Energy) (econ.Annual, error) {
-	b, err := econ.Cost(r.Plant.Tariff, samples(e, r.Steps))
-	if err != nil {
-		return econ.Annual{}, err
-	}
-	return b.Annualise(r.Period.Factor), nil
 }
 
 // addRangeCase adds a case and widens the range to hold it. The range

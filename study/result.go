@@ -84,8 +84,22 @@ type Strategy struct {
 	// region, above rated speed and into the motor's service factor.
 	Regions Regions
 
-	served []bool // per step: the strategy served it
+	served []bool   // per step: the strategy served it; nil unless the series is kept (SeriesKept)
+	beaten beaten   // where it draws less than the lowest-power staging
+	npsh   *npshRun // its NPSH check; nil when not made
 }
+
+// SeriesKept reports whether the strategy kept its input step by step
+// (Energy.KW) and whether it served each step (Served): always for a
+// profile of up to KeepStatesUpTo steps, bins and the JSON detail; on a
+// longer trend only for the lowest-power staging and the strategy the
+// calibration compares with the log, so that memory does not grow with
+// the number of strategies times the trend's length.
+func (s *Strategy) SeriesKept() bool { return s.served != nil }
+
+// Served reports whether the strategy served step i; false when the
+// series was not kept.
+func (s *Strategy) Served(i int) bool { return s.served != nil && s.served[i] }
 
 // Savings are a strategy's annual savings against the baseline.
 type Savings struct {

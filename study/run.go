@@ -88,9 +88,14 @@ func Run(in *Input, opt Options) (*Result, error) {
 		sens = nil
 	}
 	r.LoadBinWidth = loadBinWidth(in, opt.LoadBinWidth)
-	// The strategies and the range cases are independent: run them on
-	// every core, each in its own slot, so the result is the same whatever
-	// the order they finish in.
+	r.NPSH = r.npshSetup()
+	keep := opt.KeepStates || len(r.Steps) <= KeepStatesUpTo || r.LoadBinWidth <= 0
+	calib := r.calibrationKey(ks)
+	// The strategies and the range cases are independent but for one
+	// thing: every strategy compares its input step by step with the
+	// lowest-power staging's as it streams (beatenNotes), so that one runs
+	// first and keeps its series. The rest run on every core, each in its
+	// own slot, so the result is the same whatever the order they finish in.
 	r.Strategies = make([]Strategy, len(ks))
 	cases := make([]RangeCase, len(sens))
 	errs := make([]error, len(ks)+len(sens))
@@ -106,10 +111,45 @@ func Run(in *Input, opt Options) (*Result, error) {
 		done++
 	}
 	r.tick = newTicker((len(ks)+2*len(sens))*len(r.Steps), opt.Advance)
-	parallel(len(ks)+len(sens), func(j int) {
+	lowest := -1
+	for j, k := range ks {
+		if k.Key == KeyLowest {
+			lowest = j
+		}
+	}
+	refDone := make(chan struct{})
+	var ref *Strategy
+	// Jobs: the lowest-power staging, the range cases (which need no
+	// reference), then the other strategies, which wait for it.
+	order := make([]int, 0, len(ks)+len(sens))
+	if lowest >= 0 {
+		order = append(order, lowest)
+	} else {
+		close(refDone)
+	}
+	for j := range sens {
+		order = append(order, len(ks)+j)
+	}
+	for j := range ks {
+		if j != lowest {
+			order = append(order, j)
+		}
+	}
+	parallel(len(order), func(o int) {
+		j := order[o]
 		if j < len(ks) {
+			if j != lowest {
+				<-refDone
+			}
 			report(ks[j].Strategy.Name())
-			r.Strategies[j], errs[j] = r.runStrategy(ks[j], opt.KeepStates)
+			k := ks[j]
+			r.Strategies[j], errs[j] = r.runStrategy(k, keep, k.Key == KeyLowest || k.Key == calib, ref)
+			if j == lowest {
+				if errs[j] == nil {
+					ref = &r.Strategies[j]
+				}
+				close(refDone)
+			}
 			return
 		}
 		s := sens[j-len(ks)]
@@ -142,17 +182,33 @@ func Run(in *Input, opt Options) (*Result, error) {
 	return r, nil
 }
 
-// runStrategy runs one strategy over the steps and prices it. States are
-// kept for profiles of up to KeepStatesUpTo steps or when asked (the JSON
-// detail); otherwise only aggregates are.
-func (r *Result) runStrategy(k Keyed, keep bool) (Strategy, error) {
-	acc := newAccumulator(r, keep || len(r.Steps) <= KeepStatesUpTo || r.LoadBinWidth <= 0)
+// runStrategy runs one strategy over the steps and prices it as its
+// states stream. Every state is kept when keep is set (profiles of up to
+// KeepStatesUpTo steps, bins, the JSON detail); otherwise only aggregates,
+// and with series each step's input and whether it was served (the
+// lowest-power staging, which the others are compared with, and the
+// strategy the calibration compares with the log). ref is the
+// lowest-power staging, already run; nil for itself.
+func (r *Result) runStrategy(k Keyed, keep, series bool, ref *Strategy) (Strategy, error) {
+	acc, err := newAccumulator(r, keep, series, ref)
+	if err != nil {
+		return Strategy{}, err
+	}
+	if r.NPSH.Made {
+		// A run over no steps names the plant the strategy runs (a variant,
+		// for some), whose models the states' indices refer to.
+		models := r.Plant.Models
+		if p := k.Strategy.Stream(nil, nil).Plant; p != nil {
+			models = p.Models
+		}
+		acc.npsh = r.newNPSHRun(k, models)
+	}
 	run := k.Strategy.Stream(r.Steps, acc.visit)
 	run.Points = acc.points
 	acc.e.Name, acc.e.Changes, acc.e.Drives = run.Name, run.Changes, run.Drives
 	s := Strategy{Key: k.Key, Name: run.Name, Note: run.Note, Run: run, Drives: run.Drives,
-		Energy: acc.e, Regions: acc.reg, served: acc.served}
-	bill, err := econ.Cost(r.Plant.Tariff, samples(s.Energy, r.Steps))
+		Energy: acc.e, Regions: acc.reg, served: acc.served, beaten: acc.beaten, npsh: acc.npsh}
+	bill, err := acc.price.bill()
 	if err != nil {
 		return Strategy{}, err
 	}
@@ -160,6 +216,21 @@ func (r *Result) runStrategy(k Keyed, keep bool) (Strategy, error) {
 	s.Annual = bill.Annualise(r.Period.Factor)
 	s.LoadPoints = acc.loadPoints(bill.SampleCost)
 	return s, nil
+}
+
+// calibrationKey is the strategy the calibration compares with the
+// trend's logged power: the current sequence, else the lowest-power
+// staging; "" without logged power.
+func (r *Result) calibrationKey(ks []Keyed) string {
+	if r.Trend == nil || !r.Trend.HasPower() {
+		return ""
+	}
+	for _, k := range ks {
+		if k.Key == KeyCurrent {
+			return KeyCurrent
+		}
+	}
+	return KeyLowest
 }
 
 // compare counts each strategy's savings against the baseline and
@@ -192,15 +263,6 @@ func (r *Result) compare() error {
 	return nil
 }
 
-// samples turns an energy series into tariff samples.
-func samples(e Energy, steps []optimize.Step) []econ.Sample {
-	out := make([]econ.Sample, len(steps))
-	for i, st := range steps {
-		out[i] = econ.Sample{Start: st.Time, Hours: st.Hours, Power: curves.Power(e.KW[i] * curves.KW)}
-	}
-	return out
-}
-
 // runChecks adds the part-load, one-unit-out, NPSH, calibration and binning checks.
 func (r *Result) runChecks(ks []Keyed) {
 	p := r.Plant
@@ -222,12 +284,9 @@ func (r *Result) runChecks(ks []Keyed) {
 	if uo, err := optimize.CheckUnitOut(p, optimize.Options{}); err == nil {
 		r.UnitOut = &uo
 	}
-	r.NPSH = r.checkNPSH()
-	if r.Trend != nil && r.Trend.HasPower() {
-		s := r.Strategy(KeyCurrent)
-		if s == nil {
-			s = r.Strategy(KeyLowest)
-		}
+	r.npshFinish()
+	if key := r.calibrationKey(ks); key != "" {
+		s := r.Strategy(key)
 		if c := Calibrate(s.Name, s.Energy.KW, s.served, r.Steps); c.N >= 2 {
 			r.Calibration = &c
 		}
@@ -235,9 +294,10 @@ func (r *Result) runChecks(ks []Keyed) {
 	if r.Trend != nil && r.Binned == nil && r.LoadBinWidth > 0 {
 		if b, err := r.Trend.Bin(r.LoadBinWidth); err == nil {
 			steps := optimize.StepsFromBinned(b)
-			e := streamEnergy(ks[0].Strategy, steps, nil)
-			r.Binning = &BinningCheck{Width: b.Width, Bins: len(b.Bins), CubeError: b.CubeError,
-				EveryKWh: r.Strategies[0].Annual.Energy, BinnedKWh: e.KWh * r.Period.Factor}
+			if e, _, err := r.streamAnnual(ks[0].Strategy, steps, nil); err == nil {
+				r.Binning = &BinningCheck{Width: b.Width, Bins: len(b.Bins), CubeError: b.CubeError,
+					EveryKWh: r.Strategies[0].Annual.Energy, BinnedKWh: e.KWh * r.Period.Factor}
+			}
 		}
 	}
 }

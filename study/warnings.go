@@ -2,7 +2,6 @@ package study
 
 import (
 	"fmt"
-	"math"
 	"slices"
 	"strconv"
 	"strings"
@@ -107,14 +106,7 @@ func (r *Result) beatenNotes() {
 		if s.Key == KeyLowest || s.Key == KeyBypassed || s.Drives >= lo.Drives {
 			continue
 		}
-		hours, worst := 0.0, 0.0
-		for i, st := range r.Steps {
-			a, b := lo.Energy.KW[i], s.Energy.KW[i]
-			if lo.served[i] && s.served[i] && b < a {
-				hours += st.Hours
-				worst = math.Max(worst, (a-b)/a)
-			}
-		}
+		hours, worst := s.beaten.hours, s.beaten.worst
 		if hours > 0 {
 			items = append(items, fmt.Sprintf("%s, %.0f h of the period, by up to %.1f %%", s.Name, hours, 100*worst))
 		}
