@@ -223,13 +223,13 @@ func writeOrder(out io.Writer, p *plant.Plant, sp *optimize.Setpoints) {
 	u := p.Units
 	for _, t := range sp.Transitions {
 		fmt.Fprintf(out, "%d → %d at %s:", t.From, t.To, u.FormatFlow(t.Up.Flow))
-		writeOptions(out, p, t.UpOptions)
+		writeOptions(out, p, t.UpOptions, t.UpOthers)
 		fmt.Fprintf(out, "%d → %d at %s:", t.To, t.From, u.FormatFlow(t.Down.Flow))
-		writeOptions(out, p, t.DownOptions)
+		writeOptions(out, p, t.DownOptions, t.DownOthers)
 	}
 }
 
-func writeOptions(out io.Writer, p *plant.Plant, opts []optimize.Option) {
+func writeOptions(out io.Writer, p *plant.Plant, opts []optimize.Option, others int) {
 	var best float64
 	for _, o := range opts {
 		if o.Served {
@@ -249,6 +249,9 @@ func writeOptions(out io.Writer, p *plant.Plant, opts []optimize.Option) {
 		default:
 			fmt.Fprintf(out, " %s %.2f kW (+%.1f %%)", optimize.DescribeCounts(p, o.Counts), float64(o.Power)/1000, 100*(float64(o.Power)/best-1))
 		}
+	}
+	if others > 0 {
+		fmt.Fprintf(out, "; %s other combinations draw more or cannot serve it", optimize.Thousands(float64(others), 0))
 	}
 	fmt.Fprintln(out)
 }

@@ -1,5 +1,10 @@
 package optimize
 
+import (
+	"wattstage/curves"
+	"wattstage/plant"
+)
+
 // SetEveryVector makes the solver evaluate every count vector, without the
 // bounds of bound.go, so that tests can compare the two.
 func SetEveryVector(s *Solver, on bool) { s.exhaustive = on }
@@ -25,3 +30,16 @@ func TableEnds(s *Solver) (ends, vectors int) {
 // TableMisses returns how many solves the staging table left to the branch
 // and bound.
 func TableMisses(s *Solver) int { return s.tableMisses }
+
+// ChangeOptions lists the combinations of n running units at a flow as a
+// staging change does (transition.go), and how many it leaves out.
+func ChangeOptions(p *plant.Plant, q curves.Flow, n int) ([]Option, int) {
+	d := &deriver{p: p, s: New(p, Options{CommonSpeed: true})}
+	return d.options(q, n)
+}
+
+// CountsAt solves one vector of counts with one common speed, as a staging
+// change prices its options.
+func CountsAt(p *plant.Plant, q curves.Flow, cnt []int) Result {
+	return New(p, Options{CommonSpeed: true}).SolveWith(q, Constraint{Counts: cnt})
+}

@@ -1,8 +1,10 @@
 package optimize_test
 
 import (
+	"cmp"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"wattstage/curves"
@@ -170,4 +172,62 @@ func checkTable(t *testing.T, p *plant.Plant, opt optimize.Options, flows int) {
 	}
 	t.Logf("%s: %d served solves, %d ends (%.1f vectors an end), worst table vs branch and bound %+.2e",
 		p.Name, served, ends, float64(vectors)/float64(ends), worst)
+}
+
+// TestChangeOptionsCheapest checks the options a staging change lists on a
+// plant of many combinations (the cheapest eight of a count, found by the
+// branch and bound) against every combination of that count priced one by
+// one: the same combinations in the same order, and the rest counted.
+func TestChangeOptionsCheapest(t *testing.T) {
+	t.Parallel()
+	p := largePlants(t)[0] // six models of two: 728 vectors
+	for _, c := range []struct {
+		share float64
+		n     int
+	}{{0.3, 3}, {0.55, 5}, {0.8, 7}} {
+		q := p.DesignFlow * curves.Flow(c.share)
+		got, others := optimize.ChangeOptions(p, q, c.n)
+		var all []optimize.Option
+		for _, cnt := range everyCount(p, c.n) {
+			r := optimize.CountsAt(p, q, cnt)
+			if r.Status == optimize.Served {
+				all = append(all, optimize.Option{Counts: cnt, Power: r.Power, Served: true})
+			}
+		}
+		slices.SortStableFunc(all, func(a, b optimize.Option) int { return cmp.Compare(a.Power, b.Power) })
+		if len(all) < 8 || len(got) != 8 {
+			t.Fatalf("%d units at %.0f %%: %d served combinations, %d listed", c.n, 100*c.share, len(all), len(got))
+		}
+		for k := range got {
+			if !got[k].Served || math.Abs(float64(got[k].Power/all[k].Power)-1) > 1e-9 {
+				t.Errorf("%d units at %.0f %%, option %d: listed %v %.6g kW, cheapest %v %.6g kW",
+					c.n, 100*c.share, k+1, got[k].Counts, float64(got[k].Power)/1e3, all[k].Counts, float64(all[k].Power)/1e3)
+			}
+		}
+		if want := len(everyCount(p, c.n)) - 8; others != want {
+			t.Errorf("%d units: %d left out, want %d", c.n, others, want)
+		}
+	}
+}
+
+// everyCount lists every vector of running counts with n units in all.
+func everyCount(p *plant.Plant, n int) [][]int {
+	var out [][]int
+	cur := make([]int, len(p.Models))
+	var rec func(i, left int)
+	rec = func(i, left int) {
+		if i == len(cur) {
+			if left == 0 {
+				out = append(out, slices.Clone(cur))
+			}
+			return
+		}
+		for k := 0; k <= min(p.Models[i].Count, left); k++ {
+			cur[i] = k
+			rec(i+1, left-k)
+		}
+		cur[i] = 0
+	}
+	rec(0, n)
+	return out
 }

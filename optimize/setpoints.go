@@ -79,8 +79,11 @@ type Transition struct {
 	// UpOptions are the combinations with the upper stage's count of units
 	// at the stage-up flow and DownOptions those with the lower stage's count
 	// at the stage-down flow, lowest input first: the reasoning for which
-	// model is brought on next and which unit is dropped first.
+	// model is brought on next and which unit is dropped first. On a plant
+	// of many combinations only the cheapest maxOptions are listed, and
+	// UpOthers and DownOthers count the combinations left out.
 	UpOptions, DownOptions []Option
+	UpOthers, DownOthers   int
 	Notes                  []string
 	// Band is the flow range around the crossover where the two stages
 	// draw within NearEqualTolerance of each other; nil without a crossover.

@@ -39,7 +39,7 @@ func (d *deriver) stageDown(ts []Transition, k int, lowest curves.Flow) {
 	}
 	t.Down = d.threshold(b, a, down, lim, d.opt.DownDelay)
 	d.speedDown(ts, k, lowest)
-	t.DownOptions = d.options(down, sum(a))
+	t.DownOptions, t.DownOthers = d.options(down, sum(a))
 }
 
 // speedDown sets the speed form of a stage-down value (Down.Speed, its flow

@@ -63,7 +63,7 @@ func (d *deriver) transition(a, b segment, grid []curves.Flow, from int) Transit
 		delay = d.opt.CapacityDelay
 	}
 	t.Up = d.threshold(a.counts, b.counts, up, lim, delay)
-	t.UpOptions = d.options(up, sum(b.counts))
+	t.UpOptions, t.UpOthers = d.options(up, sum(b.counts))
 	return t
 }
 
@@ -89,13 +89,26 @@ func (d *deriver) threshold(before, after []int, q curves.Flow, lim Limit, delay
 	return th
 }
 
-// options lists every combination of n running units at flow q by input.
-func (d *deriver) options(q curves.Flow, n int) []Option {
+// maxOptions is how many combinations of a count of units a change lists
+// (its reasoning for which unit comes on or goes off): every one where
+// there are no more, else the cheapest, found by the branch and bound.
+const maxOptions = 8
+
+// optionsKeep is how far above the cheapest combination the branch and
+// bound looks for the others listed on a plant of many combinations.
+const optionsKeep = 0.10
+
+// options lists the combinations of n running units at flow q by input
+// (every one, or the maxOptions cheapest where there are more), and how
+// many combinations of n units it leaves out.
+func (d *deriver) options(q curves.Flow, n int) ([]Option, int) {
+	all := d.s.byTotal[n]
+	list := all
+	if len(all) > maxOptions {
+		list = d.s.closeVectors(q, n, optionsKeep)
+	}
 	var out []Option
-	for _, c := range d.combos {
-		if sum(c) != n {
-			continue
-		}
+	for _, c := range list {
 		r := d.at(c, q)
 		out = append(out, Option{Counts: append([]int(nil), c...), Power: r.Power, Served: r.Status == Served, Reason: r.Reason})
 	}
@@ -105,7 +118,10 @@ func (d *deriver) options(q curves.Flow, n int) []Option {
 			out[j], out[j-1] = out[j-1], out[j]
 		}
 	}
-	return out
+	if len(out) > maxOptions {
+		out = out[:maxOptions]
+	}
+	return out, len(all) - len(out)
 }
 
 func optionLess(a, b Option) bool {
