@@ -34,6 +34,7 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*sta
 	b.push(item{bound: b.nodeBound(0, &node{})})
 	var best *state
 	thr := math.Inf(1)
+	evaluated := 0
 	for len(s.heap) > 0 {
 		it := b.pop()
 		if it.bound > thr {
@@ -46,6 +47,9 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*sta
 		cnt := s.leafCnt[it.off : it.off+len(s.units) : it.off+len(s.units)]
 		if best = s.evaluate(Q, hr, cnt, it.fits, best, keep); best != nil {
 			thr = best.power * (1 + keep) * (1 + boundSlack)
+		}
+		if evaluated++; s.evalLimit > 0 && evaluated >= s.evalLimit {
+			break
 		}
 	}
 	return best, s.near

@@ -66,10 +66,9 @@ const tableKeep = 0.002
 // best, for the curvature of the inputs within a step.
 const tableFloor = 5e-4
 
-// tableMaxSteps bounds the table: flows above tableBase·D·(1+tableStep)^
-// tableMaxSteps (about 5.4 times the design flow at the default step) are
-// solved without it, as are flows below tableBase·D.
-const tableMaxSteps = 1260
+// tableTop bounds the table: flows above tableTop times the design flow
+// are solved without it, as are flows below tableBase times it.
+const tableTop = 5.0
 
 // flowTable holds the ends computed so far: ends[n] those of the solves
 // with exactly n running units (Constraint.Total), ends[0] those of any.
@@ -123,13 +122,10 @@ func (s *Solver) fromTable(load, Q, hr float64, c Constraint) (*state, []*state)
 		return nil, nil
 	}
 	base := tableBase * float64(s.plant.DesignFlow)
-	if load < base {
+	if load < base || load > tableTop*float64(s.plant.DesignFlow) {
 		return nil, nil
 	}
 	j := int(math.Log(load/base) / math.Log1p(tableStep))
-	if j+1 >= tableMaxSteps {
-		return nil, nil
-	}
 	a, b := s.tableEnd(c.Total, j, base), s.tableEnd(c.Total, j+1, base)
 	n := len(s.units)
 	margin := math.Max(a.gap(b, n), b.gap(a, n)) + tableFloor

@@ -64,13 +64,16 @@ type Solver struct {
 
 	// Per solve: each model's bounds at the required head, the branch and
 	// bound over the counts, and the vectors it lists (bound.go, branch.go).
-	mb          []modelBound
-	scans       []powerScan
-	br          branch
-	items       []item  // the frontier's items, in push order
-	heap        []int32 // the frontier: indices into items, a binary heap
-	leafCnt     []int
-	bounded     bool // s.mb holds the bounds of the solve in progress
+	mb      []modelBound
+	scans   []powerScan
+	br      branch
+	items   []item  // the frontier's items, in push order
+	heap    []int32 // the frontier: indices into items, a binary heap
+	leafCnt []int
+	bounded bool // s.mb holds the bounds of the solve in progress
+	// evalLimit stops a branch and bound after that many vectors evaluated
+	// (0: no limit); closeVectors sets it.
+	evalLimit   int
 	table       flowTable
 	noTable     bool  // solve without the table (tests)
 	tableMisses int   // solves the table left to the branch and bound

@@ -91,12 +91,17 @@ func (d *deriver) threshold(before, after []int, q curves.Flow, lim Limit, delay
 
 // maxOptions is how many combinations of a count of units a change lists
 // (its reasoning for which unit comes on or goes off): every one where
-// there are no more, else the cheapest, found by the branch and bound.
+// there are no more, else the cheapest of those the branch and bound
+// evaluates.
 const maxOptions = 8
 
 // optionsKeep is how far above the cheapest combination the branch and
-// bound looks for the others listed on a plant of many combinations.
-const optionsKeep = 0.10
+// bound looks for the others listed on a plant of many combinations, and
+// optionsLooked how many it evaluates at most, lowest bound first.
+const (
+	optionsKeep   = 0.10
+	optionsLooked = 64
+)
 
 // options lists the combinations of n running units at flow q by input
 // (every one, or the maxOptions cheapest where there are more), and how
@@ -105,7 +110,7 @@ func (d *deriver) options(q curves.Flow, n int) ([]Option, int) {
 	all := d.s.byTotal[n]
 	list := all
 	if len(all) > maxOptions {
-		list = d.s.closeVectors(q, n, optionsKeep)
+		list = d.s.closeVectors(q, n, optionsKeep, optionsLooked)
 	}
 	var out []Option
 	for _, c := range list {

@@ -205,6 +205,41 @@ func (s *sheet) merged(row, c1, c2 int, v, style string) {
 	s.tall = append(s.tall, tallRow{row: row, col: c1, span: c2 - c1 + 1, labels: []string{v}, bold: isBold(style)})
 }
 
+// maxParagraph is the most characters paragraph puts in one row: a
+// spreadsheet row is at most 409 points high, 27 lines of the body font,
+// and prose spans at least about 60 characters a line (20 lines).
+const maxParagraph = 1200
+
+// paragraph writes a text of any length as merged, wrapped rows across
+// columns c1..c2: one row where it fits in maxParagraph characters, else
+// several, split after a "; " or ". " (a space at worst), each continued on
+// the next. It returns the row after the last.
+func (s *sheet) paragraph(row, c1, c2 int, v, style string) int {
+	for len(v) > maxParagraph {
+		cut := splitPoint(v, maxParagraph)
+		s.merged(row, c1, c2, strings.TrimSpace(v[:cut]), style)
+		v = strings.TrimSpace(v[cut:])
+		row++
+	}
+	s.merged(row, c1, c2, v, style)
+	return row + 1
+}
+
+// splitPoint is where to break a text at or before n bytes: after the last
+// "; " or ". ", else the last space, else at n (kept on a rune boundary).
+func splitPoint(v string, n int) int {
+	head := v[:n]
+	for _, sep := range []string{"; ", ". ", " "} {
+		if i := strings.LastIndex(head, sep); i > n/2 {
+			return i + len(sep) - 1
+		}
+	}
+	for n > 0 && !utf8.RuneStart(v[n]) {
+		n--
+	}
+	return n
+}
+
 // wrapped writes text that wraps inside its column, growing the row.
 func (s *sheet) wrapped(col, row int, v, style string) {
 	s.text(col, row, v, style)

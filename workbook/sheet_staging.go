@@ -58,8 +58,7 @@ func (b *book) stagingSheet() {
 		row++
 	}
 	for i, step := range st.Sequence {
-		s.merged(row, 1, last, fmt.Sprintf("%d. %s", i+1, step), "wrap")
-		row++
+		row = s.paragraph(row, 1, last, fmt.Sprintf("%d. %s", i+1, step), "wrap")
 	}
 	for c := 1; c <= 10; c++ {
 		s.fixed[c] = 13
