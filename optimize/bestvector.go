@@ -24,7 +24,7 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*sta
 	if c.Counts != nil {
 		return s.oneVector(Q, hr, c.Counts), s.near
 	}
-	if s.exhaustive || len(s.combos) <= fewVectors {
+	if s.exhaustive || len(s.combos) <= fewVectors || s.fixedModels {
 		return s.everyVector(Q, hr, c)
 	}
 	s.prepareBounds(Q, hr)
@@ -113,8 +113,48 @@ func (s *Solver) proportionalAt(cnt []int, Q, hr float64, fitsAtHr bool, best *s
 		}
 	}
 	st, sd := s.atHeadMode(cnt, Q, h, splitProportional)
-	if sd != fits {
+	if sd != fits && s.opt.CommonSpeed {
+		// Each unit could carry its share at h, but not at one common
+		// speed (at the shared floor the units move too much): the header
+		// head must rise until they can.
+		st = s.commonAbove(cnt, Q, h)
+	} else if sd != fits {
 		return nil
 	}
 	return st
+}
+
+// commonAbove is a vector's state with one common speed at the lowest
+// header head above from where it has one (a scan of the solve's head grid
+// above it, then bisection), or nil.
+func (s *Solver) commonAbove(cnt []int, Q, from float64) *state {
+	at := func(h float64) *state {
+		st, sd := s.atHeadMode(cnt, Q, h, splitProportional)
+		if sd != fits {
+			return nil
+		}
+		return st
+	}
+	hc := s.headCap(cnt)
+	prev := from
+	for k := 1; k <= gridPoints && s.grid[k-1] < hc; k++ {
+		h := s.grid[k]
+		if h <= from {
+			continue
+		}
+		if at(h) == nil {
+			prev = h
+			continue
+		}
+		a, b := prev, h
+		for it := 0; it < 80 && b-a > 1e-12*b; it++ {
+			if m := (a + b) / 2; at(m) != nil {
+				b = m
+			} else {
+				a = m
+			}
+		}
+		return at(b)
+	}
+	return nil
 }

@@ -79,6 +79,7 @@ type node struct {
 	units      int
 	fitsDead   bool // a model's span is empty at h_r, or lo already exceeds Q
 	spanDead   bool // a model's span is empty at h_r
+	fixedOn    bool // a fixed-speed model runs (riseBound)
 	risingDead bool // a model cannot reach h_r at top speed
 }
 
@@ -166,6 +167,9 @@ func (b *branch) expand(it *item, thr float64) {
 			if !m.spanOK {
 				ch.fitsDead, ch.spanDead = true, true
 			}
+			if !s.units[i].variable {
+				ch.fixedOn = true
+			}
 			if !m.topOK {
 				ch.risingDead = true
 			}
@@ -234,14 +238,16 @@ func (b *branch) fitBound(i int, nd *node) float64 {
 
 // riseBound bounds the vectors below a node at any head from h_r up: the
 // extended Lagrangian bound (bound.go), and riseMargin times the one at the
-// required head's spans where every model has one.
+// required head's spans where every model has one and no fixed-speed unit
+// runs (a fixed-speed unit moves less flow, and draws less, at a higher
+// head than its span at h_r says).
 func (b *branch) riseBound(i int, nd *node) float64 {
 	rise, atHr := math.Inf(-1), math.Inf(-1)
 	for k := range lambdas {
 		rise = max(rise, lambdaLadder[k]*b.rgq+nd.gx[k]+b.sufGx[i][k])
 		atHr = max(atHr, lambdaLadder[k]*b.rgq+nd.g[k]+b.sufG[i][k])
 	}
-	if !nd.spanDead {
+	if !nd.spanDead && !nd.fixedOn {
 		rise = max(rise, riseMargin*atHr)
 	}
 	return max(rise, b.universal(i, nd))

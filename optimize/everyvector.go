@@ -22,10 +22,19 @@ func (s *Solver) everyVector(Q, hr float64, c Constraint) (*state, []*state) {
 	}
 	var cands []cand
 	quickBest := math.Inf(1)
+	keep := func(st *state) {
+		cands = append(cands, cand{st, s.variableModels(st.counts) <= 1})
+		quickBest = math.Min(quickBest, st.power)
+	}
 	add := func(cnt []int, h float64) {
 		if st, sd := s.atHeadMode(cnt, Q, h, splitProportional); sd == fits {
-			cands = append(cands, cand{st, s.variableModels(cnt) <= 1})
-			quickBest = math.Min(quickBest, st.power)
+			keep(st)
+		} else if s.opt.CommonSpeed {
+			// No common speed at h though each unit could carry its share
+			// there: the head must rise (proportionalAt).
+			if st := s.commonAbove(cnt, Q, h); st != nil {
+				keep(st)
+			}
 		}
 	}
 	var rising [][]int

@@ -47,6 +47,14 @@ type Solver struct {
 	combos [][]int
 	// exhaustive evaluates every count vector, without the bounds (tests).
 	exhaustive bool
+	// fixedModels: fixed-speed models run beside variable-speed ones.
+	// Such a plant evaluates every vector: the bounds take a vector's input
+	// at the required head (or its lowest feasible head) as nearly its
+	// best, but raising the header head lowers a fixed-speed unit's flow
+	// and its draw while the variable units make up the rest, and the
+	// optimality suite's many-vectors-mixed plant had a vector 9 % below
+	// its bound there.
+	fixedModels bool
 	// byTotal lists the vectors by their number of running units.
 	byTotal map[int][][]int
 	rho     float64
@@ -99,6 +107,7 @@ func New(p *plant.Plant, opt Options) *Solver {
 		s.scans = append(s.scans, scanPower(u))
 	}
 	s.combos = enumerate(p.Models)
+	s.fixedModels = mixesDrives(s.units)
 	for _, cnt := range s.combos {
 		n := 0
 		for _, v := range cnt {
@@ -263,4 +272,14 @@ func (s *Solver) unmetOnly(res Result, Q, hr float64, c Constraint) Result {
 		s.combos = s.byTotal[c.Total]
 	}
 	return s.unmet(res, Q, hr, c)
+}
+
+// mixesDrives reports whether some units run at fixed speed and others on
+// drives.
+func mixesDrives(units []*unitModel) bool {
+	fixed, variable := false, false
+	for _, u := range units {
+		fixed, variable = fixed || !u.variable, variable || u.variable
+	}
+	return fixed && variable
 }

@@ -291,6 +291,13 @@ func suitePlants(t testing.TB) []*plant.Plant {
 		{name: "slow-rise-two-models", system: dp(0.16, 28, 0.34), models: []suiteModel{
 			{name: "A", count: 2, pump: slowRiseA, motorHP: 100, minFlowX: 0.10},
 			{name: "B", count: 1, pump: slowRiseB, motorHP: 40, minFlowX: 0.19}}},
+		// More than 16 count vectors (35), so the solver bounds them and
+		// answers from its staging table (bound.go, flowtable.go) rather
+		// than evaluating each; at most three variable units run, which
+		// keeps the reference's search within reach.
+		{name: "many-vectors-mixed", system: dp(0.40, 30, 0.4), models: []suiteModel{n(L, 2), M,
+			mod(S, func(m *suiteModel) { m.name, m.count, m.drive = "S-fixed", 2, curves.FixedSpeed{} }),
+			mod(L, func(m *suiteModel) { m.name, m.count, m.drive = "L-fixed", 1, curves.FixedSpeed{} })}},
 		{name: "speed-correction", system: dp(0.25, 30, 0.3), tempC: 60, models: []suiteModel{
 			mod(L, func(m *suiteModel) { m.pump.speedCorrection = true })}},
 		{name: "setpoint-reset", models: []suiteModel{L}, system: curves.DPControl{DesignFlow: 0.25, DesignHead: 30, ControlHead: 12,
