@@ -32,10 +32,15 @@ type flowCache = SolveCache[curves.Flow]
 const SolveCacheSize = 1 << 15
 
 // Solve returns solve(key), from the cache when the key was solved before.
-// The result is a copy the caller may keep or change.
+// A result from the cache shares its slices (units, counts, warnings) with
+// it and with every other answer to the same key: the caller may keep it
+// and read it, and append to its slices (they are full, so an append
+// copies), but must copy a slice before changing an element. No one in
+// the program changes a streamed state's elements; copying each answer
+// instead took a quarter of the CPU of a 1,000,000-row trend.
 func (c *SolveCache[K]) Solve(key K, solve func(K) Result) Result {
 	if r, ok := c.m[key]; ok {
-		return cloneResult(r)
+		return fullSlices(r)
 	}
 	r := solve(key)
 	limit := c.limit
@@ -51,6 +56,15 @@ func (c *SolveCache[K]) Solve(key K, solve func(K) Result) Result {
 
 // Len is the number of results the cache holds.
 func (c *SolveCache[K]) Len() int { return len(c.m) }
+
+// fullSlices caps a result's slices at their length, so that an append
+// to one copies it rather than writing into the cache's array.
+func fullSlices(r Result) Result {
+	r.Counts = r.Counts[:len(r.Counts):len(r.Counts)]
+	r.Units = r.Units[:len(r.Units):len(r.Units)]
+	r.Warnings = r.Warnings[:len(r.Warnings):len(r.Warnings)]
+	return r
+}
 
 // cloneResult copies a result with its own slices.
 func cloneResult(r Result) Result {
