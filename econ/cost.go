@@ -132,7 +132,7 @@ func (b *Bill) periodSlot(i int) *PeriodUse {
 }
 
 func (b *Bill) costTimed(t *Tariff, series []Sample) {
-	m := &Meter{t: *t, b: b, months: map[[2]int]int{}}
+	m := &Meter{t: *t, b: b, months: map[[2]int]int{}, lastIdx: -1}
 	for si, s := range series {
 		b.SampleCost[si] = m.price(s)
 	}

@@ -14,12 +14,16 @@ import (
 // samples, bit for bit (the sums are made in the same order), without
 // SampleCost: Add returns each sample's cost instead.
 type Meter struct {
-	t       Tariff
-	b       *Bill
-	months  map[[2]int]int // (year, month) → index in b.Months
-	longest float64        // h, the longest sample
-	n       int            // samples added
-	err     error          // the first bad sample
+	t      Tariff
+	b      *Bill
+	months map[[2]int]int // (year, month) → index in b.Months
+	// The month of the last hour priced: a series runs in time order, so
+	// nearly every hour is in it and skips the map.
+	lastKey [2]int
+	lastIdx int     // -1 before the first
+	longest float64 // h, the longest sample
+	n       int     // samples added
+	err     error   // the first bad sample
 }
 
 // NewMeter returns a meter for a time-stamped series under the tariff.
@@ -27,7 +31,7 @@ func NewMeter(t Tariff) (*Meter, error) {
 	if err := t.Validate(); err != nil {
 		return nil, err
 	}
-	return &Meter{t: t, b: newBill(&t, true), months: map[[2]int]int{}}, nil
+	return &Meter{t: t, b: newBill(&t, true), months: map[[2]int]int{}, lastIdx: -1}, nil
 }
 
 // Add prices the next sample and returns its energy cost (currency). A
@@ -101,11 +105,15 @@ func (m *Meter) price(s Sample) float64 {
 			u.Cost += e * price
 		}
 		key := [2]int{y, int(mo)}
-		mi, ok := m.months[key]
-		if !ok {
-			mi = len(b.Months)
-			m.months[key] = mi
-			b.Months = append(b.Months, Month{Year: y, Month: mo})
+		mi := m.lastIdx
+		if mi < 0 || key != m.lastKey {
+			var ok bool
+			if mi, ok = m.months[key]; !ok {
+				mi = len(b.Months)
+				m.months[key] = mi
+				b.Months = append(b.Months, Month{Year: y, Month: mo})
+			}
+			m.lastKey, m.lastIdx = key, mi
 		}
 		mon := &b.Months[mi]
 		mon.Hours += h

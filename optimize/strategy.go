@@ -91,7 +91,7 @@ func (l *Lowest) Stream(steps []Step, visit func(int, *Result)) Run {
 	prev := -1
 	var cache flowCache
 	for i, st := range steps {
-		res := cache.solve(st.Load, l.Solver.Solve)
+		res := cache.Solve(st.Load, l.Solver.Solve)
 		visit(i, &res)
 		prev = countChange(&r, st, res, prev)
 	}
@@ -175,17 +175,38 @@ func commonSpeed(r Result, p *plant.Plant) float64 {
 	return sp
 }
 
-func (s *Staged) solveN(load curves.Flow, n int) Result {
-	return s.solver.SolveWith(load, Constraint{Total: n})
+// stagedKey fixes a solve of the sequence: the load flow and the count of
+// running units.
+type stagedKey struct {
+	load curves.Flow
+	n    int
+}
+
+// solveN solves the load with n units running, from the cache when the
+// same flow was solved with n before (a long trend repeats its flows; the
+// sequence re-solves each row with the count it holds, and checks n−1
+// before staging down). A nil cache solves every time (tests compare).
+func (s *Staged) solveN(c *SolveCache[stagedKey], load curves.Flow, n int) Result {
+	if c == nil {
+		return s.solveKey(stagedKey{load, n})
+	}
+	return c.Solve(stagedKey{load, n}, s.solveKey)
+}
+
+func (s *Staged) solveKey(k stagedKey) Result {
+	if k.n == 0 {
+		return s.solver.Solve(k.load) // no count serves it: the reason why
+	}
+	return s.solver.SolveWith(k.load, Constraint{Total: k.n})
 }
 
 // fewest returns the result with the fewest units that serve the load at a
 // speed at or below StageUp, else the fewest that serve it at all.
-func (s *Staged) fewest(load curves.Flow) (Result, int) {
+func (s *Staged) fewest(c *SolveCache[stagedKey], load curves.Flow) (Result, int) {
 	var first *Result
 	firstN := 0
 	for n := 1; n <= s.total; n++ {
-		r := s.solveN(load, n)
+		r := s.solveN(c, load, n)
 		if r.Status != Served {
 			continue
 		}
@@ -199,10 +220,15 @@ func (s *Staged) fewest(load curves.Flow) (Result, int) {
 	if first != nil {
 		return *first, firstN
 	}
-	return s.solver.Solve(load), 0
+	return s.solveN(c, load, 0), 0
 }
 
 func (s *Staged) Stream(steps []Step, visit func(int, *Result)) Run {
+	return s.stream(steps, visit, &SolveCache[stagedKey]{})
+}
+
+// stream runs the sequence with the cache c (nil: none).
+func (s *Staged) stream(steps []Step, visit func(int, *Result), c *SolveCache[stagedKey]) Run {
 	r := Run{Name: s.Label, Drives: drives(s.Plant), Plant: s.Plant,
 		Note: "one common speed for the running units; stage up above the stage-up speed, down below the stage-down speed"}
 	n := 0 // running units; 0 = not started
@@ -210,23 +236,23 @@ func (s *Staged) Stream(steps []Step, visit func(int, *Result)) Run {
 	var last time.Time
 	for i, st := range steps {
 		if !st.Timed() {
-			res, _ := s.fewest(st.Load)
+			res, _ := s.fewest(c, st.Load)
 			visit(i, &res)
 			continue
 		}
 		if n == 0 || (!last.IsZero() && st.Time.Sub(last) > 6*time.Hour) {
 			// Start (or restart after a long gap) the way an operator would:
 			// the fewest units that serve the load below stage-up.
-			_, n = s.fewest(st.Load)
+			_, n = s.fewest(c, st.Load)
 			upSince, downSince = time.Time{}, time.Time{}
 		}
 		last = st.Time
-		res := s.solveN(st.Load, n)
+		res := s.solveN(c, st.Load, n)
 		// Cannot serve with n: stage up at once (a capacity alarm), as far as needed.
 		for res.Status != Served && n < s.total {
 			n++
 			r.Changes++
-			res = s.solveN(st.Load, n)
+			res = s.solveN(c, st.Load, n)
 			upSince, downSince = time.Time{}, time.Time{}
 		}
 		visit(i, &res)
@@ -253,7 +279,7 @@ func (s *Staged) Stream(steps []Step, visit func(int, *Result)) Run {
 			upSince = time.Time{}
 			if end.Sub(downSince) >= s.DownDelay {
 				// Drop a unit only if the rest can serve this load.
-				if t := s.solveN(st.Load, n-1); t.Status == Served {
+				if t := s.solveN(c, st.Load, n-1); t.Status == Served {
 					n--
 					r.Changes++
 				}
@@ -345,7 +371,7 @@ func (t *Throttled) Stream(steps []Step, visit func(int, *Result)) Run {
 	prev := -1
 	var cache flowCache
 	for i, st := range steps {
-		res := cache.solve(st.Load, t.solve)
+		res := cache.Solve(st.Load, t.solve)
 		visit(i, &res)
 		prev = countChange(&r, st, res, prev)
 	}

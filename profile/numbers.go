@@ -1,6 +1,7 @@
 package profile
 
 import (
+	"iter"
 	"math"
 	"strconv"
 	"strings"
@@ -31,9 +32,9 @@ type numFormat struct {
 // in a file delimited otherwise is a decimal comma; a point is a decimal
 // point. ambiguous counts the cells that could be read either way under
 // the chosen format and whose reading depends on it.
-func columnFormat(cells []string, delim byte) (f numFormat, ambiguous int, first string) {
+func columnFormat(cells iter.Seq[string], delim byte) (f numFormat, ambiguous int, first string) {
 	var commaDec, pointDec int
-	for _, cell := range cells {
+	for cell := range cells {
 		s := strings.TrimLeft(cell, "+-")
 		nd, nc := strings.Count(s, "."), strings.Count(s, ",")
 		switch {

@@ -174,7 +174,7 @@ func (p *reader) chooseLayout(rows []*row) string {
 			what := map[string]string{unixLayout: "seconds since 1970-01-01 UTC", unixMSLayout: "milliseconds since 1970-01-01 UTC",
 				excelLayout: "spreadsheet serial dates (days since 1899-12-30, wall-clock time)"}[lay]
 			t, _ := parseStamp(lay, r.cells[cellTime])
-			p.warn(r.line, "numeric stamps such as %q read as %s (%s); give time_format %s to say so, or another if that is wrong",
+			p.warn(r.lineNo(), "numeric stamps such as %q read as %s (%s); give time_format %s to say so, or another if that is wrong",
 				r.cells[cellTime], what, t.Format("2006-01-02 15:04:05"), lay)
 		}
 		return lay
@@ -183,7 +183,7 @@ func (p *reader) chooseLayout(rows []*row) string {
 		for i, l := range layouts {
 			if l.layout == tw && counts[i] == counts[best] {
 				r := firstStamp(rows)
-				p.warn(r.line, "dates such as %q read as %s; give the trend's time format if that is wrong",
+				p.warn(r.lineNo(), "dates such as %q read as %s; give the trend's time format if that is wrong",
 					r.cells[cellTime], dayOrder(layouts[best].layout))
 			}
 		}
@@ -230,7 +230,7 @@ func (p *reader) parseTimes(rows []*row) error {
 				hint = "the numbers are not seconds (10⁸–10¹¹) or milliseconds (10¹¹–10¹⁴) since 1970, nor spreadsheet serial dates (20000–110000): " +
 					"export the stamps as dates, or give time_format unix, unix_ms or excel if one of them is meant"
 			}
-			return p.errAt(r.line, r.timeFrom, p.spec.TimeColumn, fmt.Errorf("%w: %s in column %q; %s",
+			return p.errAt(r.lineNo(), int(r.timeFrom), p.spec.TimeColumn, fmt.Errorf("%w: %s in column %q; %s",
 				ErrTimeFormat, quoteCut(r.cells[cellTime]), p.spec.TimeColumn, hint))
 		}
 		return nil // every row already dropped for another reason
@@ -248,7 +248,7 @@ func (p *reader) parseTimes(rows []*row) error {
 			continue
 		}
 		if p.zoned || p.loc == time.UTC {
-			r.t = t
+			r.ns = t.UnixNano()
 			continue
 		}
 		early, late, ok := localInstants(t, p.loc)
@@ -256,15 +256,15 @@ func (p *reader) parseTimes(rows []*row) error {
 			r.drop = MissingLocal
 			continue
 		}
-		r.t = early
+		r.ns = early.UnixNano()
 		if !early.Equal(late) {
 			k := seen[t]
 			seen[t]++
 			if k >= 1 {
-				r.t = late
+				r.ns = late.UnixNano()
 			}
 			if k == 1 {
-				r.notes = append(r.notes, RepeatedHour)
+				r.note(RepeatedHour)
 			}
 		}
 	}

@@ -36,15 +36,18 @@ type TrendSpec struct {
 
 // Point is one usable row of a trend log. A point stands for the interval
 // that starts at its stamp.
+//
+// The two flags come last, together, so that a point is 72 bytes, not 80
+// (a million-row trend keeps a million points).
 type Point struct {
 	Time     time.Time    // the stamp, in the trend's zone
 	Flow     curves.Flow  // plant flow, m³/s (≥ 0)
 	DP       curves.Head  // differential pressure as head of the pumped fluid, m; valid when HasDP
-	HasDP    bool         // the row had a usable DP cell
 	Power    curves.Power // measured pump power, W; valid when HasPower
-	HasPower bool         // the row had a usable power cell
 	Hours    float64      // the interval the point represents, h: min(logging interval, step to the next point)
 	Line     int          // line of the row in the file (1-based)
+	HasDP    bool         // the row had a usable DP cell
+	HasPower bool         // the row had a usable power cell
 }
 
 // Trend is a trend log read, checked and put in time order.

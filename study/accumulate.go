@@ -91,7 +91,8 @@ func (a *accumulator) visit(i int, res *optimize.Result) {
 		kw = float64(res.Power) / curves.KW
 		a.e.KWh += kw * st.Hours
 		a.e.PeakKW = max(a.e.PeakKW, kw)
-		for _, u := range res.Units {
+		for j := range res.Units {
+			u := &res.Units[j] // not a copy: this runs for every unit of every step
 			a.reg.UnitHours += st.Hours
 			if !u.Preferred {
 				a.reg.OutsidePreferred += st.Hours

@@ -55,12 +55,16 @@ func (l *loggedDP) Stream(steps []optimize.Step, visit func(int, *optimize.Resul
 	r := optimize.Run{Name: l.label, Plant: l.plant, Drives: optimize.Drives(l.plant),
 		Note: "the lowest-power staging holding the DP the trend logged at the sensor (the modelled setpoint where none was logged)"}
 	prev := -1
+	// A logged DP repeats with its flow (both logged to a resolution), and
+	// the solve is a function of the two: a long trend answers repeats
+	// from a bounded cache.
+	var cache optimize.SolveCache[dpKey]
 	for i, st := range steps {
-		c := optimize.Constraint{}
+		k := dpKey{load: st.Load}
 		if st.DP > 0 {
-			c.Head = l.needAt(st.DP, st.Load)
+			k.head = l.needAt(st.DP, st.Load)
 		}
-		res := l.solver.SolveWith(st.Load, c)
+		res := cache.Solve(k, l.solve)
 		visit(i, &res)
 		if st.Timed() && res.Status == optimize.Served {
 			if n := res.Running(); prev >= 0 && n != prev {
@@ -70,6 +74,17 @@ func (l *loggedDP) Stream(steps []optimize.Step, visit func(int, *optimize.Resul
 		}
 	}
 	return r
+}
+
+// dpKey fixes a solve at a logged DP: the load flow and the head the pumps
+// must make (0: the modelled setpoint).
+type dpKey struct {
+	load curves.Flow
+	head curves.Head
+}
+
+func (l *loggedDP) solve(k dpKey) optimize.Result {
+	return l.solver.SolveWith(k.load, optimize.Constraint{Head: k.head})
 }
 
 func abs(v int) int {

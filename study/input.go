@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"path/filepath"
+	"runtime/debug"
 
 	"wattstage/curves"
 	"wattstage/optimize"
@@ -49,6 +50,14 @@ func Prepare(p *plant.Plant, binWidth curves.Flow) (*Input, error) {
 	}
 	if err := tr.Plausible(p.TrendExpect()); err != nil {
 		return nil, err
+	}
+	if len(tr.Points) > KeepStatesUpTo {
+		// Reading a long log leaves its text and a record per line (more
+		// than the points kept) as garbage; hand it back to the system now,
+		// once, rather than let the study's allocations pile on top of it
+		// until the collector's pacing catches up (issue 13: the peak RSS
+		// of a 1,000,000-row trend was the read's garbage plus the study's).
+		debug.FreeOSMemory()
 	}
 	in.Trend = tr
 	if binWidth == 0 {
