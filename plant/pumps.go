@@ -108,29 +108,44 @@ func (d *decoder) pumps(n *yaml.Node) []*pumpSpec {
 
 // maxVectors caps the number of count vectors a plant offers the optimiser,
 // Π(count + 1) − 1 over its models (every way to run some of its units):
-// the cost of a solve grows with it. An hourly year of `plan` on a 2-core
-// machine took 47 s of CPU at 728 vectors (six models of two), 54 s at 999
-// (three models of nine), 106 s at 1,023 (ten single-unit models) and 293 s
-// at 4,095 (DEVELOPERS.md, "Benchmarks"); the cap keeps a year within about
-// a minute and still takes three models of eight or six of two (728), two
-// of twenty (440) and nine single-unit models (511).
-const maxVectors = 800
+// the cost of a year grows with it. An hourly year of `plan` on the 2-core
+// machine (DEVELOPERS.md, "Plants of many models, long trends") took
+// 10–12 s of CPU at 728 and 999 vectors, 19 s at 1,023 and 57 s at 4,095
+// (four models of seven); the cap keeps a year within about a minute and
+// takes four models of seven and twelve single-unit models (4,095 each).
+// Six models of four (15,624) took 81 s and are refused.
+const maxVectors = 4100
 
-// checkVectors refuses a plant whose models' counts give more than
-// maxVectors count vectors.
+// maxMixedVectors is the cap where fixed-speed models run beside variable-
+// speed ones: the optimiser then evaluates every vector (the bounds do not
+// hold there), and a year took 48 s of CPU at 728 vectors and 200 s at
+// 4,095.
+const maxMixedVectors = 800
+
+// checkVectors refuses a plant whose models' counts give more count vectors
+// than its cap.
 func (d *decoder) checkVectors(n *yaml.Node, specs []*pumpSpec) {
 	prod := 1
+	fixed, variable := false, false
 	for _, s := range specs {
 		if s == nil || s.model.Count < 1 {
 			return
 		}
+		v := s.model.Drive.Variable()
+		fixed, variable = fixed || !v, variable || v
+	}
+	limit, why := maxVectors, ""
+	if fixed && variable {
+		limit, why = maxMixedVectors, " where fixed-speed units run beside variable-speed ones"
+	}
+	for _, s := range specs {
 		prod *= s.model.Count + 1
-		if prod-1 > maxVectors {
+		if prod-1 > limit {
 			break
 		}
 	}
-	if prod-1 > maxVectors {
-		d.errorf(n, "pumps", "the models' counts give %s ways to run some of the units (the product of count + 1 over the models, less one); at most %d are supported: merge identical models, or hold units in standby (pumps[].standby)", vectorsText(specs), maxVectors)
+	if prod-1 > limit {
+		d.errorf(n, "pumps", "the models' counts give %s ways to run some of the units (the product of count + 1 over the models, less one); at most %s are supported%s: merge identical models, or hold units in standby (pumps[].standby)", vectorsText(specs), fmtGrouped(float64(limit)), why)
 	}
 }
 
@@ -143,7 +158,7 @@ func vectorsText(specs []*pumpSpec) string {
 	if prod > 1e9 {
 		return "more than a billion"
 	}
-	return fmt.Sprintf("%.0f", prod-1)
+	return fmtGrouped(prod - 1)
 }
 
 // pump reads one pump model and fits its curve.
