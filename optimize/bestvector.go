@@ -1,6 +1,10 @@
 package optimize
 
-import "math"
+import (
+	"cmp"
+	"math"
+	"slices"
+)
 
 // branchAndBound finds the cheapest vector of running counts at flow Q
 // (required head hr) under a constraint, and the states it evaluated
@@ -10,8 +14,9 @@ import "math"
 // is expanded (a partial vector) or evaluated (a whole one) next, and the
 // search stops when the least bound left exceeds the best input found
 // (with the allowance boundSlack), since nothing left can beat it. Whole
-// vectors are thus evaluated lowest bound first, and only the nodes whose
-// bound lies below the answer are ever expanded.
+// vectors are thus evaluated lowest bound first (those that need a higher
+// head after the rest, see below), and only the nodes whose bound lies
+// below the answer are ever expanded.
 //
 // Each vector is evaluated as before the bounds: at the required head
 // with the variable units' flow split in proportion to their ranges (exact
@@ -24,7 +29,7 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*sta
 	if c.Counts != nil {
 		return s.oneVector(Q, hr, c.Counts), s.near
 	}
-	if s.exhaustive || len(s.combos) <= fewVectors || s.fixedModels {
+	if s.exhaustive || len(s.combos) <= fewVectors {
 		return s.everyVector(Q, hr, c)
 	}
 	s.prepareBounds(Q, hr)
@@ -35,6 +40,24 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*sta
 	var best *state
 	thr := math.Inf(1)
 	evaluated := 0
+	eval := func(it *item) bool {
+		cnt := s.leafCnt[it.off : it.off+len(s.units) : it.off+len(s.units)]
+		k := keep
+		if s.fixedModels && s.runsFixed(cnt) {
+			k = max(keep, headSearchMargin-1) // see branch.relax
+		}
+		if best = s.evaluate(Q, hr, cnt, it.fits, best, k); best != nil {
+			thr = best.power * (1 + keep) * (1 + boundSlack)
+		}
+		evaluated++
+		return s.evalLimit > 0 && evaluated >= s.evalLimit
+	}
+	// A vector that needs a higher head is set aside until the search is
+	// done: its bound is looser (every head from h_r up), so it tends to
+	// pop first, and its evaluation (a search for its lowest feasible head)
+	// gives up early only once a best state is known. Every vector whose
+	// bound is within the final threshold is still evaluated.
+	deferred := s.deferred[:0]
 	for len(s.heap) > 0 {
 		it := b.pop()
 		if it.bound > thr {
@@ -44,15 +67,35 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*sta
 			b.expand(it, thr)
 			continue
 		}
-		cnt := s.leafCnt[it.off : it.off+len(s.units) : it.off+len(s.units)]
-		if best = s.evaluate(Q, hr, cnt, it.fits, best, keep); best != nil {
-			thr = best.power * (1 + keep) * (1 + boundSlack)
+		if !it.fits {
+			deferred = append(deferred, int32(it.seq))
+			continue
 		}
-		if evaluated++; s.evalLimit > 0 && evaluated >= s.evalLimit {
+		if eval(it) {
 			break
 		}
 	}
+	slices.SortFunc(deferred, func(x, y int32) int {
+		return cmp.Or(cmp.Compare(s.items[x].bound, s.items[y].bound), cmp.Compare(x, y))
+	})
+	for _, k := range deferred {
+		it := &s.items[k]
+		if it.bound > thr || eval(it) {
+			break
+		}
+	}
+	s.deferred = deferred
 	return best, s.near
+}
+
+// runsFixed reports whether a vector runs a fixed-speed unit.
+func (s *Solver) runsFixed(cnt []int) bool {
+	for i, n := range cnt {
+		if n > 0 && !s.units[i].variable {
+			return true
+		}
+	}
+	return false
 }
 
 // oneVector solves a given vector of counts: nothing to bound.

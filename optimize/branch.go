@@ -22,6 +22,7 @@ type branch struct {
 	sufTop   []float64
 	sufCount []int
 	sufEta   []float64
+	sufFixed []bool // a fixed-speed model may run
 }
 
 // boundSlack is the allowance on a leaf's bound for what the sampling of
@@ -35,13 +36,15 @@ func (s *Solver) prepareBranch(Q, hr float64, c Constraint) *branch {
 	b := &s.br
 	*b = branch{s: s, Q: Q, rgq: s.rho * curves.Gravity * Q * hr, c: c,
 		cur: slices.Grow(b.cur[:0], n)[:n], sufG: b.sufG[:0], sufGx: b.sufGx[:0], sufTop: b.sufTop[:0],
-		sufCount: b.sufCount[:0], sufEta: b.sufEta[:0]}
+		sufCount: b.sufCount[:0], sufEta: b.sufEta[:0], sufFixed: b.sufFixed[:0]}
 	b.sufG = slices.Grow(b.sufG, n+1)[:n+1]
 	b.sufGx = slices.Grow(b.sufGx, n+1)[:n+1]
 	b.sufGx[n] = [lambdas]float64{}
 	b.sufTop = slices.Grow(b.sufTop, n+1)[:n+1]
 	b.sufCount = slices.Grow(b.sufCount, n+1)[:n+1]
 	b.sufEta = slices.Grow(b.sufEta, n+1)[:n+1]
+	b.sufFixed = slices.Grow(b.sufFixed, n+1)[:n+1]
+	b.sufFixed[n] = false
 	b.sufG[n], b.sufTop[n], b.sufCount[n], b.sufEta[n] = [lambdas]float64{}, 0, 0, 0
 	for i := n - 1; i >= 0; i-- {
 		m, cnt := &s.mb[i], s.plant.Models[i].Count
@@ -62,6 +65,7 @@ func (s *Solver) prepareBranch(Q, hr float64, c Constraint) *branch {
 			b.sufGx[i][k] = b.sufGx[i+1][k] + gx
 		}
 		b.sufTop[i], b.sufCount[i], b.sufEta[i] = b.sufTop[i+1], b.sufCount[i+1]+hi, b.sufEta[i+1]
+		b.sufFixed[i] = b.sufFixed[i+1] || (hi > 0 && !s.units[i].variable)
 		if m.topOK {
 			b.sufTop[i] += float64(hi) * m.top
 			b.sufEta[i] = max(b.sufEta[i], m.eta)
@@ -199,7 +203,7 @@ func (b *branch) expand(it *item, thr float64) {
 			b.leafAt(ch, thr)
 			continue
 		}
-		if bd := b.nodeBound(i+1, ch); bd <= thr {
+		if bd := b.relax(i+1, ch, b.nodeBound(i+1, ch)); bd <= thr {
 			b.push(item{bound: bd, depth: i + 1, nd: *ch})
 		} else if ch.fitsDead && ch.pmin > thr {
 			break // every further unit only adds to the floor
@@ -239,18 +243,33 @@ func (b *branch) fitBound(i int, nd *node) float64 {
 // riseBound bounds the vectors below a node at any head from h_r up: the
 // extended Lagrangian bound (bound.go), and riseMargin times the one at the
 // required head's spans where every model has one and no fixed-speed unit
-// runs (a fixed-speed unit moves less flow, and draws less, at a higher
-// head than its span at h_r says).
+// runs or may run below the node (a fixed-speed unit moves less flow, and
+// draws less, at a higher head than its span at h_r says).
 func (b *branch) riseBound(i int, nd *node) float64 {
 	rise, atHr := math.Inf(-1), math.Inf(-1)
 	for k := range lambdas {
 		rise = max(rise, lambdaLadder[k]*b.rgq+nd.gx[k]+b.sufGx[i][k])
 		atHr = max(atHr, lambdaLadder[k]*b.rgq+nd.g[k]+b.sufG[i][k])
 	}
-	if !nd.spanDead && !nd.fixedOn {
+	if !nd.spanDead && !nd.fixedOn && !b.sufFixed[i] {
 		rise = max(rise, riseMargin*atHr)
 	}
 	return max(rise, b.universal(i, nd))
+}
+
+// relax lowers the bound of a node where a fixed-speed unit runs, or may
+// run below it, beside variable-speed ones, by headSearchMargin. Beside fixed-speed units the head
+// search (SolveWith) can take a vector far below its bound at the required
+// head: a higher head lowers a fixed-speed unit's flow and draw (a vector
+// 9 % below it seen in the optimality suite). The search starts from every
+// state within headSearchMargin of the best, so every such vector whose
+// bound lies within that of the best must be evaluated (branchAndBound
+// evaluates it with that allowance).
+func (b *branch) relax(i int, nd *node, bound float64) float64 {
+	if b.s.fixedModels && (nd.fixedOn || b.sufFixed[i]) {
+		return bound / headSearchMargin
+	}
+	return bound
 }
 
 // riseMargin is how far below the Lagrangian bound at the required head's
@@ -280,7 +299,7 @@ func (b *branch) leafAt(nd *node, thr float64) {
 	default:
 		return
 	}
-	if bound > thr {
+	if bound = b.relax(len(b.s.units), nd, bound); bound > thr {
 		return
 	}
 	b.push(item{bound: bound, depth: len(b.s.units), fits: fits})

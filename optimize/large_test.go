@@ -45,6 +45,44 @@ func largePlants(t testing.TB) []*plant.Plant {
 	return out
 }
 
+// mixedOf is a plant with one unit of its first model left across the line
+// (a partial drive retrofit, optimize.PartialVariant): fixed-speed units
+// beside variable ones, where a higher head lowers the fixed units' flow
+// and draw and the bounds at the required head do not hold (bestvector.go).
+func mixedOf(p *plant.Plant) *plant.Plant {
+	w := make([]int, len(p.Models))
+	for i, m := range p.Models {
+		w[i] = m.Count
+	}
+	w[0]--
+	v := optimize.PartialVariant(p, w, p.Models[0].Drive)
+	v.Name = p.Name + "-one-fixed"
+	return v
+}
+
+// fixedOf is a plant with every unit across the line, as the throttled
+// strategy runs it (optimize.FixedVariant).
+func fixedOf(p *plant.Plant) *plant.Plant {
+	v := optimize.FixedVariant(p)
+	v.Name = p.Name + "-fixed"
+	return v
+}
+
+// fewestUnits solves a flow with the fewest running units that serve it,
+// as the throttled strategy does.
+func fewestUnits(s *optimize.Solver, p *plant.Plant, q curves.Flow) optimize.Result {
+	units := 0
+	for _, m := range p.Models {
+		units += m.Count
+	}
+	for n := 1; n <= units; n++ {
+		if r := s.SolveWith(q, optimize.Constraint{Total: n}); r.Status == optimize.Served {
+			return r
+		}
+	}
+	return s.Solve(q)
+}
+
 // TestBoundsKeepTheBest checks the bounded search (bound.go, branch.go)
 // against the same solver evaluating every count vector, on the large
 // plants, at flows from 2 % to 105 % of design: the brute-force reference
@@ -52,9 +90,14 @@ func largePlants(t testing.TB) []*plant.Plant {
 // exponential in the running units and out of reach on these plants, and
 // the exhaustive evaluation is the method the suite verified before the
 // bounds. Power within the suite's 0.05 %, and served where it serves.
+// The plants run as given, with one unit across the line (mixedOf), and
+// all across the line (the throttled strategy's variant), where each flow
+// is also solved as that strategy does: the fewest units that serve it.
 func TestBoundsKeepTheBest(t *testing.T) {
 	t.Parallel()
 	plants := largePlants(t)
+	plants = append(plants, mixedOf(plants[0]), mixedOf(plants[1]),
+		fixedOf(plants[0]), fixedOf(plants[1]), fixedOf(plants[2]))
 	flows := 40
 	if testing.Short() {
 		flows = 6
@@ -75,6 +118,12 @@ func TestBoundsKeepTheBest(t *testing.T) {
 				if d, ok := samePlan(t, label, "bounded", "every vector", bounded.Solve(q), every.Solve(q)); ok {
 					served++
 					worst = math.Max(worst, d)
+				}
+				if !p.Models[0].Drive.Variable() {
+					got, want := fewestUnits(bounded, p, q), fewestUnits(every, p, q)
+					if d, ok := samePlan(t, label+", fewest units", "bounded", "every vector", got, want); ok {
+						worst = math.Max(worst, d)
+					}
 				}
 			}
 			if served < flows/2 {
@@ -97,7 +146,8 @@ func TestBoundsKeepTheBest(t *testing.T) {
 // the plant again.
 func TestTableKeepsTheBest(t *testing.T) {
 	t.Parallel()
-	plants := append(largePlants(t), benchPlant8Corrected(t))
+	large := largePlants(t)
+	plants := append(large, benchPlant8Corrected(t), mixedOf(large[0]), mixedOf(large[1]))
 	flows := 1500
 	if testing.Short() {
 		plants, flows = plants[:1], 150

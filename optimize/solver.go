@@ -48,12 +48,11 @@ type Solver struct {
 	// exhaustive evaluates every count vector, without the bounds (tests).
 	exhaustive bool
 	// fixedModels: fixed-speed models run beside variable-speed ones.
-	// Such a plant evaluates every vector: the bounds take a vector's input
-	// at the required head (or its lowest feasible head) as nearly its
-	// best, but raising the header head lowers a fixed-speed unit's flow
-	// and its draw while the variable units make up the rest, and the
-	// optimality suite's many-vectors-mixed plant had a vector 9 % below
-	// its bound there.
+	// Raising the header head lowers a fixed-speed unit's flow and its draw
+	// while the variable units make up the rest (the optimality suite's
+	// many-vectors-mixed plant had a vector 9 % below its bound at the
+	// required head), so the branch and bound widens its bounds for such
+	// vectors by the head search's margin (branch.relax).
 	fixedModels bool
 	// byTotal lists the vectors by their number of running units.
 	byTotal map[int][][]int
@@ -72,13 +71,14 @@ type Solver struct {
 
 	// Per solve: each model's bounds at the required head, the branch and
 	// bound over the counts, and the vectors it lists (bound.go, branch.go).
-	mb      []modelBound
-	scans   []powerScan
-	br      branch
-	items   []item  // the frontier's items, in push order
-	heap    []int32 // the frontier: indices into items, a binary heap
-	leafCnt []int
-	bounded bool // s.mb holds the bounds of the solve in progress
+	mb       []modelBound
+	scans    []powerScan
+	br       branch
+	items    []item  // the frontier's items, in push order
+	heap     []int32 // the frontier: indices into items, a binary heap
+	leafCnt  []int
+	deferred []int32 // items of vectors that need a higher head (branchAndBound)
+	bounded  bool    // s.mb holds the bounds of the solve in progress
 	// evalLimit stops a branch and bound after that many vectors evaluated
 	// (0: no limit); closeVectors sets it.
 	evalLimit   int
