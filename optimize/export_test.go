@@ -16,13 +16,9 @@ func SetTable(s *Solver, on bool) { s.noTable = !on }
 // TableEnds returns how many ends of the staging table a solver has
 // computed and how many vectors they keep in all.
 func TableEnds(s *Solver) (ends, vectors int) {
-	for _, byTotal := range s.table.ends {
-		for _, e := range byTotal {
-			if e.done {
-				ends++
-				vectors += len(e.counts) / len(s.units)
-			}
-		}
+	for _, e := range s.table.ends {
+		ends++
+		vectors += len(e.counts) / len(s.units)
 	}
 	return ends, vectors
 }

@@ -70,16 +70,38 @@ const tableFloor = 5e-4
 // are solved without it, as are flows below tableBase times it.
 const tableTop = 5.0
 
-// flowTable holds the ends computed so far: ends[n] those of the solves
-// with exactly n running units (Constraint.Total), ends[0] those of any.
+// A solve at a given head (Constraint.Head: a logged DP, say) is a
+// function of the flow and that head: its table's ends lie on a grid of
+// both, heads tableStep apart as flows are, and a load is solved among the
+// vectors that can win inside its cell. The argument above holds corner by
+// corner: a vector C that wins inside the cell beats the winner A of one
+// corner there, so (the differences moving about linearly) at some corner
+// k as well, where C is then within A's gap over that corner's best.
+// The margin is thus the largest gap of any corner's winner at any other
+// corner.
+
+// headBase is the head at index 0 of the grid of given heads, m; any
+// positive value serves (the grid is geometric).
+const headBase = 1.0
+
+// flowTable holds the ends computed so far, by endKey.
 type flowTable struct {
-	ends [][]tableEnd
+	ends map[endKey]*tableEnd
 }
+
+// endKey names one end: solves with exactly total running units
+// (Constraint.Total; 0: any), at flow index j, at head index m of the grid
+// of given heads (noHead: the system's required head).
+type endKey struct {
+	total, j, m int
+}
+
+// noHead marks an end at the system's required head.
+const noHead = math.MinInt32
 
 // tableEnd is the vectors kept at one step's end, cheapest first: their
 // counts laid end to end and their inputs, W.
 type tableEnd struct {
-	done   bool
 	counts []int
 	power  []float64
 }
@@ -108,10 +130,17 @@ func (e *tableEnd) gap(other *tableEnd, n int) float64 {
 
 // tableFor reports whether a solve may use the table: a plant with more
 // vectors than everyVector takes, and no constraint but a number of
-// running units (a staged sequence's), which has a table of its own.
+// running units (a staged sequence's) or a head, which have tables of
+// their own.
 func (s *Solver) tableFor(c Constraint) bool {
 	return !s.noTable && !s.exhaustive && len(s.combos) > fewVectors &&
-		c.Counts == nil && c.Head == 0 && c.Total >= 0
+		c.Counts == nil && c.Head >= 0 && c.Total >= 0
+}
+
+// gridIndex is the index of the step of a geometric grid from base with
+// ratio 1+tableStep that holds v.
+func gridIndex(v, base float64) int {
+	return int(math.Floor(math.Log(v/base) / math.Log1p(tableStep)))
 }
 
 // fromTable solves a load among the vectors that can win in its step of
@@ -125,19 +154,35 @@ func (s *Solver) fromTable(load, Q, hr float64, c Constraint) (*state, []*state)
 	if load < base || load > tableTop*float64(s.plant.DesignFlow) {
 		return nil, nil
 	}
-	j := int(math.Log(load/base) / math.Log1p(tableStep))
-	a, b := s.tableEnd(c.Total, j, base), s.tableEnd(c.Total, j+1, base)
+	j := gridIndex(load, base)
+	corners := s.corners[:0]
+	if c.Head > 0 {
+		m := gridIndex(float64(c.Head), headBase)
+		for _, d := range [4][2]int{{0, 0}, {1, 0}, {0, 1}, {1, 1}} {
+			corners = append(corners, s.tableEnd(endKey{c.Total, j + d[0], m + d[1]}, base))
+		}
+	} else {
+		corners = append(corners, s.tableEnd(endKey{c.Total, j, noHead}, base), s.tableEnd(endKey{c.Total, j + 1, noHead}, base))
+	}
+	s.corners = corners
 	n := len(s.units)
-	margin := math.Max(a.gap(b, n), b.gap(a, n)) + tableFloor
-	if margin > tableKeep {
-		// The two ends' winners are far apart (or one cannot serve the
-		// other end): the step holds a limit the linear picture does not
-		// see. Leave the load to the branch and bound.
+	margin := 0.0
+	for _, a := range corners {
+		for _, b := range corners {
+			if a != b {
+				margin = math.Max(margin, a.gap(b, n))
+			}
+		}
+	}
+	if margin += tableFloor; margin > tableKeep {
+		// The ends' winners are far apart (or one cannot serve another
+		// end): the step holds a limit the linear picture does not see.
+		// Leave the load to the branch and bound.
 		s.tableMisses++
 		return nil, nil
 	}
 	cands := s.tableBuf[:0]
-	for _, e := range [2]*tableEnd{a, b} {
+	for _, e := range corners {
 		for k, p := range e.power {
 			if p > e.power[0]*(1+margin) {
 				break
@@ -174,31 +219,29 @@ func hasVector(list, cnt []int) bool {
 	return false
 }
 
-// tableEnd returns the vectors kept at step end j (flow base·(1+tableStep)^j)
-// for solves of total running units (0: any), computing them the first
-// time.
-func (s *Solver) tableEnd(total, j int, base float64) *tableEnd {
-	t := &s.table
-	if total >= len(t.ends) {
-		t.ends = slices.Grow(t.ends, total+1-len(t.ends))[:total+1]
+// tableEnd returns the vectors kept at an end (flow base·(1+tableStep)^j,
+// head headBase·(1+tableStep)^m or the required head, total running units
+// or any), computing them the first time.
+func (s *Solver) tableEnd(k endKey, base float64) *tableEnd {
+	if s.table.ends == nil {
+		s.table.ends = map[endKey]*tableEnd{}
 	}
-	ends := &t.ends[total]
-	if j >= len(*ends) {
-		*ends = slices.Grow(*ends, j+1-len(*ends))[:j+1]
-	}
-	e := &(*ends)[j]
-	if e.done {
+	if e := s.table.ends[k]; e != nil {
 		return e
 	}
-	e.done = true
-	load := base * math.Pow(1+tableStep, float64(j))
+	e := &tableEnd{}
+	s.table.ends[k] = e
+	load := base * math.Pow(1+tableStep, float64(k.j))
 	Q := max(load, float64(s.plant.MinFlow))
 	if Q <= 0 {
 		return e
 	}
 	hr := float64(s.plant.RequiredHead(curves.Flow(load)))
+	if k.m != noHead {
+		hr = headBase * math.Pow(1+tableStep, float64(k.m))
+	}
 	s.resetGrid(hr)
-	best, near := s.branchAndBound(Q, hr, Constraint{Total: total}, tableKeep)
+	best, near := s.branchAndBound(Q, hr, Constraint{Total: k.total}, tableKeep)
 	if best == nil {
 		return e
 	}

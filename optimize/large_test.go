@@ -138,8 +138,9 @@ func TestBoundsKeepTheBest(t *testing.T) {
 // (flowtable.go) against the branch and bound alone (itself checked against
 // every vector above) at random flows from 2 % to 107 % of design, between
 // the table's ends: with any number of running units, with a given number
-// (a staged sequence's solves, which have tables of their own) and with
-// one common speed. The same status everywhere and the same power within
+// (a staged sequence's solves, which have tables of their own), at a given
+// head from 85 % to 120 % of the need (a logged DP: ends on a grid of flow
+// and head) and with one common speed. The same status everywhere and the same power within
 // the suite's 0.05 % (measured: identical at 1,500 flows on each plant).
 // It also checks that the table did the work: at most 8 vectors kept an
 // end on average (0.9–4.8 measured), else the point's cost would grow with
@@ -182,13 +183,17 @@ func checkTable(t *testing.T, p *plant.Plant, opt optimize.Options, flows int) {
 	}
 	var worst float64
 	served := 0
-	for k := range 2 * flows {
+	for k := range 3 * flows {
 		q := p.DesignFlow * curves.Flow(0.02+1.05*rng.Float64())
 		var c optimize.Constraint
-		if k%2 == 1 {
+		switch k % 3 {
+		case 1:
 			c.Total = 1 + rng.IntN(units)
+		case 2:
+			// A given head (a logged DP) from 85 % to 120 % of the need.
+			c.Head = p.RequiredHead(q) * curves.Head(0.85+0.35*rng.Float64())
 		}
-		label := fmt.Sprintf("load %.6g m³/s, %d units", float64(q), c.Total)
+		label := fmt.Sprintf("load %.6g m³/s, %d units, head %.6g m", float64(q), c.Total, float64(c.Head))
 		if d, ok := samePlan(t, label, "table", "branch and bound", table.SolveWith(q, c), bounded.SolveWith(q, c)); ok {
 			served++
 			worst = math.Max(worst, d)
@@ -199,7 +204,7 @@ func checkTable(t *testing.T, p *plant.Plant, opt optimize.Options, flows int) {
 		t.Errorf("%d table ends keep %d vectors: the table is not narrowing the search", ends, vectors)
 	}
 	if served < flows/2 {
-		t.Errorf("only %d of %d solves served: the check says little", served, 2*flows)
+		t.Errorf("only %d of %d solves served: the check says little", served, 3*flows)
 	}
 	t.Logf("%s: %d served solves, %d ends (%.1f vectors an end), worst table vs branch and bound %+.2e",
 		p.Name, served, ends, float64(vectors)/float64(ends), worst)

@@ -78,7 +78,8 @@ type Solver struct {
 	heap     []int32 // the frontier: indices into items, a binary heap
 	leafCnt  []int
 	deferred []int32 // items of vectors that need a higher head (branchAndBound)
-	bounded  bool    // s.mb holds the bounds of the solve in progress
+	corners  []*tableEnd
+	bounded  bool // s.mb holds the bounds of the solve in progress
 	// evalLimit stops a branch and bound after that many vectors evaluated
 	// (0: no limit); closeVectors sets it.
 	evalLimit   int
