@@ -79,6 +79,13 @@ func (q *Sequenced) Run(steps []Step) Run {
 // StreamCycling runs the sequence, visiting each step's state as it is
 // solved, and counts its stage changes and starts.
 func (q *Sequenced) StreamCycling(steps []Step, visit func(int, *Result)) (Run, Cycling) {
+	// A solve is a function of the flow and the stage: a trend's repeats
+	// are answered from a bounded cache (flowcache.go).
+	return q.streamCycling(steps, visit, &SolveCache[stageKey]{})
+}
+
+// streamCycling is StreamCycling with the cache c (nil: none).
+func (q *Sequenced) streamCycling(steps []Step, visit func(int, *Result), c *SolveCache[stageKey]) (Run, Cycling) {
 	sp := q.Setpoints
 	p := sp.Plant
 	r := Run{Name: q.Label, Drives: drives(p),
@@ -92,7 +99,7 @@ func (q *Sequenced) StreamCycling(steps []Step, visit func(int, *Result)) (Run, 
 		hours += st.Hours
 		pumped := max(st.Load, p.MinFlow)
 		if !st.Timed() {
-			res := q.serve(st.Load, q.goingUp(pumped))
+			res := q.serve(c, st.Load, q.goingUp(pumped))
 			visit(i, &res)
 			continue
 		}
@@ -103,11 +110,11 @@ func (q *Sequenced) StreamCycling(steps []Step, visit func(int, *Result)) (Run, 
 			upSince, downSince = time.Time{}, time.Time{}
 		}
 		prev = st.Time
-		res := q.at(st.Load, k)
+		res := q.at(c, st.Load, k)
 		for res.Status != Served && k < last {
 			cc.change(sp, k, k+1, st.Time)
 			k++
-			res = q.at(st.Load, k)
+			res = q.at(c, st.Load, k)
 			upSince, downSince = time.Time{}, time.Time{}
 		}
 		visit(i, &res)
@@ -132,7 +139,7 @@ func (q *Sequenced) StreamCycling(steps []Step, visit func(int, *Result)) (Run, 
 			}
 			upSince = time.Time{}
 			if end.Sub(downSince) >= sp.Transitions[k-1].Down.Delay {
-				if q.at(st.Load, k-1).Status == Served {
+				if q.at(c, st.Load, k-1).Status == Served {
 					cc.change(sp, k, k-1, end)
 					k--
 				}
@@ -173,15 +180,30 @@ func (q *Sequenced) goingUp(pumped curves.Flow) int {
 	return len(q.Setpoints.Stages) - 1
 }
 
-func (q *Sequenced) at(load curves.Flow, k int) Result {
-	return q.solver.SolveWith(load, Constraint{Counts: q.Setpoints.Stages[k].Counts})
+// stageKey fixes a solve of the sequence: the load flow and the stage.
+type stageKey struct {
+	load  curves.Flow
+	stage int
+}
+
+// at solves a load in stage k, from the cache c (nil: none) when it was
+// solved before.
+func (q *Sequenced) at(c *SolveCache[stageKey], load curves.Flow, k int) Result {
+	if c == nil {
+		return q.solveStage(stageKey{load, k})
+	}
+	return c.Solve(stageKey{load, k}, q.solveStage)
+}
+
+func (q *Sequenced) solveStage(k stageKey) Result {
+	return q.solver.SolveWith(k.load, Constraint{Counts: q.Setpoints.Stages[k.stage].Counts})
 }
 
 // serve solves a bin in stage k, or in the next stage up that serves it.
-func (q *Sequenced) serve(load curves.Flow, k int) Result {
-	first := q.at(load, k)
+func (q *Sequenced) serve(c *SolveCache[stageKey], load curves.Flow, k int) Result {
+	first := q.at(c, load, k)
 	for j := k; j < len(q.Setpoints.Stages); j++ {
-		if r := q.at(load, j); r.Status == Served {
+		if r := q.at(c, load, j); r.Status == Served {
 			return r
 		}
 	}

@@ -84,3 +84,35 @@ func TestStagedCacheChangesNothing(t *testing.T) {
 		})
 	}
 }
+
+// The derived sequence's cache changes no result either: states, stage
+// changes and starts are those of solving every step, with the default
+// bound and with a bound of 16.
+func TestSequencedCacheChangesNothing(t *testing.T) {
+	p := testPlant(t, testModel(t, "big", 3, 1, curves.DOEDrive{}))
+	sp, err := DeriveSetpoints(p, SetpointOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	q := NewSequenced("derived", sp, FlowBasis)
+	steps := stagedTrend()
+	collect := func(c *SolveCache[stageKey]) (Run, Cycling, []Result) {
+		var out []Result
+		run, cy := q.streamCycling(steps, func(_ int, r *Result) { out = append(out, cloneResult(*r)) }, c)
+		return run, cy, out
+	}
+	wantRun, wantCy, want := collect(nil)
+	if wantRun.Changes < 4 {
+		t.Fatalf("only %d stage changes: the trend should stage up and down", wantRun.Changes)
+	}
+	for _, limit := range []int{0, 16} {
+		c := &SolveCache[stageKey]{limit: limit}
+		run, cy, got := collect(c)
+		if limit == 0 && (c.Len() == 0 || c.Len() >= len(steps)) {
+			t.Errorf("the cache holds %d results over %d steps: repeats should be answered from it", c.Len(), len(steps))
+		}
+		if run.Changes != wantRun.Changes || !reflect.DeepEqual(cy, wantCy) || !reflect.DeepEqual(got, want) {
+			t.Errorf("bound %d: cached run differs (%d changes, want %d)", limit, run.Changes, wantRun.Changes)
+		}
+	}
+}
