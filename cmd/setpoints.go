@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -223,18 +224,30 @@ func writeOrder(out io.Writer, p *plant.Plant, sp *optimize.Setpoints) {
 	u := p.Units
 	for _, t := range sp.Transitions {
 		fmt.Fprintf(out, "%d → %d at %s:", t.From, t.To, u.FormatFlow(t.Up.Flow))
-		writeOptions(out, p, t.UpOptions, t.UpOthers)
+		writeOptions(out, p, t.UpOptions, t.UpOthers, t.Upper)
 		fmt.Fprintf(out, "%d → %d at %s:", t.To, t.From, u.FormatFlow(t.Down.Flow))
-		writeOptions(out, p, t.DownOptions, t.DownOthers)
+		writeOptions(out, p, t.DownOptions, t.DownOthers, t.Lower)
 	}
 }
 
-func writeOptions(out io.Writer, p *plant.Plant, opts []optimize.Option, others int) {
-	var best float64
+// writeOptions writes the combinations a change weighed, marking the one
+// the sequence runs after it (target) as chosen and giving the others'
+// input relative to it: at a crossover two combinations draw the same, and
+// which of them is listed first is rounding, not the sequence.
+func writeOptions(out io.Writer, p *plant.Plant, opts []optimize.Option, others int, target []int) {
+	ref := math.NaN()
 	for _, o := range opts {
-		if o.Served {
-			best = float64(o.Power)
-			break
+		if o.Served && slices.Equal(o.Counts, target) {
+			ref = float64(o.Power)
+		}
+	}
+	if math.IsNaN(ref) {
+		// The sequence's combination is not listed: compare with the best.
+		for _, o := range opts {
+			if o.Served {
+				ref = float64(o.Power)
+				break
+			}
 		}
 	}
 	for k, o := range opts {
@@ -244,10 +257,15 @@ func writeOptions(out io.Writer, p *plant.Plant, opts []optimize.Option, others 
 		switch {
 		case !o.Served:
 			fmt.Fprintf(out, " %s cannot serve it", optimize.DescribeCounts(p, o.Counts))
-		case float64(o.Power) == best:
+		case slices.Equal(o.Counts, target):
 			fmt.Fprintf(out, " %s %.2f kW (chosen)", optimize.DescribeCounts(p, o.Counts), float64(o.Power)/1000)
 		default:
-			fmt.Fprintf(out, " %s %.2f kW (+%.1f %%)", optimize.DescribeCounts(p, o.Counts), float64(o.Power)/1000, 100*(float64(o.Power)/best-1))
+			d := 100 * (float64(o.Power)/ref - 1)
+			sign := "+"
+			if math.Round(10*d) < 0 {
+				sign = "−"
+			}
+			fmt.Fprintf(out, " %s %.2f kW (%s%.1f %%)", optimize.DescribeCounts(p, o.Counts), float64(o.Power)/1000, sign, math.Abs(d))
 		}
 	}
 	if others > 0 {
