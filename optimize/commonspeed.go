@@ -25,25 +25,22 @@ func (s *Solver) commonSpeed(st *state, vars []int, spans []span, qvar float64) 
 		}
 		return sum
 	}
-	if flows(shi) < qvar*(1-1e-12) {
+	fhi := flows(shi)
+	if fhi < qvar*(1-1e-12) {
 		return false
 	}
-	a, b := slo, shi
-	if fa := flows(a); fa > qvar*(1+1e-9) {
+	sp := slo
+	if fa := flows(slo); fa > qvar*(1+1e-9) {
 		// At the common floor the units move too much: the head must rise.
 		return false
-	} else if fa >= qvar {
-		b = a // on the floor (within rounding of the head that put it there)
+	} else if fa < qvar && slo < shi {
+		// The flows rise with the speed: Brent's method finds the speed
+		// that makes qvar (it brackets, so a jump where a unit only just
+		// reaches the head ends at the jump and fails the check below).
+		sp = brentRoot(func(v float64) float64 { return flows(v) - qvar }, slo, shi, fa-qvar, fhi-qvar, 1e-14)
 	}
-	for it := 0; it < 100 && b-a > 1e-14; it++ {
-		m := (a + b) / 2
-		if flows(m) < qvar {
-			a = m
-		} else {
-			b = m
-		}
-	}
-	flows((a + b) / 2)
+	// Otherwise on the floor (within rounding of the head that put it there).
+	flows(sp)
 	// Put the rounding remainder on the first model so that flows sum
 	// exactly — only a rounding remainder: where the flows jump with speed
 	// (a unit that only just reaches the head) there is no common speed.
