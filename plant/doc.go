@@ -256,9 +256,9 @@
 //	field                                   accepted
 //	pumps                                   1 to 12 models
 //	pumps[].count                           1 to 20 installed units
-//	all models together                     at most 4,100 count vectors, Π(count + 1) − 1 over
+//	all models together                     at most 16,000 count vectors, Π(count + 1) − 1 over
 //	                                        the models (the optimiser's work grows with them);
-//	                                        800 where fixed- and variable-speed models mix
+//	                                        2,500 where fixed- and variable-speed models mix
 //	pumps[].rated_speed                     100 to 10000 rpm
 //	pumps[].curve                           3 (4 for cubic) to 100 points, rising flow, falling head,
 //	                                        not all at the same head

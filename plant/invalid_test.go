@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"errors"
 	"flag"
+	"os"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -119,6 +120,35 @@ func TestThreeMistakes(t *testing.T) {
 		e := list[i]
 		if e.Line != w.line || e.Column == 0 || e.Path != w.path || !strings.Contains(e.Msg, w.msg) {
 			t.Errorf("error %d = %v; want line %d, path %s, message containing %q", i, e, w.line, w.path, w.msg)
+		}
+	}
+}
+
+// The count-vector caps refuse a plant just above them (the two bad-input
+// cases) and take one just under: the refused files with one model's count
+// lowered by one give 14,405 vectors (all on drives, cap 16,000) and 2,400
+// (one model across the line, cap 2,500).
+func TestVectorCapsTakeJustUnder(t *testing.T) {
+	for _, tc := range []struct {
+		file, from, to string
+	}{
+		{"count-vectors.yaml", "  - name: P1\n    count: 6\n", "  - name: P1\n    count: 5\n"},
+		{"count-vectors-mixed.yaml", "count: 7\n", "count: 6\n"},
+	} {
+		path := filepath.Join("..", "testdata", "invalid", "plants", tc.file)
+		b, err := os.ReadFile(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if _, err := Parse(tc.file, b, filepath.Dir(path)); err == nil {
+			t.Errorf("%s: accepted, want refused at the cap", tc.file)
+		}
+		doc := strings.ReplaceAll(string(b), tc.from, tc.to)
+		if doc == string(b) {
+			t.Fatalf("%s: %q not found", tc.file, tc.from)
+		}
+		if _, err := Parse(tc.file, []byte(doc), filepath.Dir(path)); err != nil {
+			t.Errorf("%s just under the cap: %v", tc.file, err)
 		}
 	}
 }

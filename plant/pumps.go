@@ -110,17 +110,18 @@ func (d *decoder) pumps(n *yaml.Node) []*pumpSpec {
 // Π(count + 1) − 1 over its models (every way to run some of its units):
 // the cost of a year grows with it. An hourly year of `plan` on the 2-core
 // machine (DEVELOPERS.md, "Plants of many models, long trends") took
-// 10–12 s of CPU at 728 and 999 vectors, 19 s at 1,023 and 57 s at 4,095
-// (four models of seven); the cap keeps a year within about a minute and
-// takes four models of seven and twelve single-unit models (4,095 each).
-// Six models of four (15,624) took 81 s and are refused.
-const maxVectors = 4100
+// 11 s of CPU at 728 vectors, 36–41 s at 4,095 (four models of seven,
+// twelve single-unit models), 48 s at 7,775 (five models of five) and
+// 43 s at 15,624 (six models of four), and 111 s at 16,806 (five models of
+// six, before the last speed-ups): the cap keeps a year within about a
+// minute.
+const maxVectors = 16000
 
 // maxMixedVectors is the cap where fixed-speed models run beside variable-
-// speed ones: the optimiser then evaluates every vector (the bounds do not
-// hold there), and a year took 48 s of CPU at 728 vectors and 200 s at
-// 4,095.
-const maxMixedVectors = 800
+// speed ones: the bounds are widened there (a higher head lowers a fixed-
+// speed unit's flow and draw), and a year took 15 s of CPU at 728 vectors,
+// 49 s at 2,400 and 80 s at 4,095.
+const maxMixedVectors = 2500
 
 // checkVectors refuses a plant whose models' counts give more count vectors
 // than its cap.
