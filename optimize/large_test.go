@@ -16,7 +16,7 @@ import (
 // largePlants are invented plants of many units and models, where the
 // solver bounds the count vectors instead of evaluating each (bound.go):
 // six models of two units (728 vectors), four of four (624), and four of
-// seven (4,095, above the plant file's cap of 800: the solver takes it).
+// seven (4,095).
 func largePlants(t testing.TB) []*plant.Plant {
 	t.Helper()
 	L := suiteModel{name: "L", pump: pumpL, motorHP: 60}
