@@ -153,7 +153,7 @@ func writePlan(out io.Writer, r *study.Result) {
 	for _, s := range r.Strategies {
 		changes := "—"
 		if pd.Timed {
-			changes = fmt.Sprint(s.Energy.Changes)
+			changes = study.Grouped(float64(s.Energy.Changes))
 		}
 		row := []string{s.Name}
 		if showPeriod {

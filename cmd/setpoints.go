@@ -134,7 +134,7 @@ func setpointsRun(opts *SetpointsOptions) error {
 	t.row("way of staging", "energy (kWh/yr)", "vs optimum (%)", "stage changes")
 	changes := func(n int) string {
 		if len(in.Steps) > 0 && in.Steps[0].Timed() {
-			return fmt.Sprint(n)
+			return study.Grouped(float64(n))
 		}
 		return "—"
 	}

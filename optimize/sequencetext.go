@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"wattstage/curves"
+	"wattstage/internal/numfmt"
 	"wattstage/plant"
 )
 
@@ -320,20 +321,5 @@ func thousands(v float64, dec int) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return "–"
 	}
-	s := fmt.Sprintf("%.*f", dec, math.Abs(v))
-	whole, frac, _ := strings.Cut(s, ".")
-	var b strings.Builder
-	if v < 0 && strings.Trim(s, "0.") != "" {
-		b.WriteByte('-')
-	}
-	for i, d := range whole {
-		if i > 0 && (len(whole)-i)%3 == 0 {
-			b.WriteByte(',')
-		}
-		b.WriteRune(d)
-	}
-	if frac != "" {
-		b.WriteString("." + frac)
-	}
-	return b.String()
+	return numfmt.Grouped(v, dec)
 }

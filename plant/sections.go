@@ -3,7 +3,6 @@ package plant
 import (
 	"os"
 	"path/filepath"
-	"strconv"
 	"strings"
 	"time"
 
@@ -11,6 +10,7 @@ import (
 
 	"wattstage/curves"
 	"wattstage/econ"
+	"wattstage/internal/numfmt"
 	"wattstage/profile"
 )
 
@@ -316,13 +316,7 @@ func (d *decoder) price(n *yaml.Node, path string, max float64) float64 {
 }
 
 // fmtGrouped writes a whole number with thousands separators.
-func fmtGrouped(v float64) string {
-	s := strconv.FormatFloat(v, 'f', 0, 64)
-	for i := len(s) - 3; i > 0; i -= 3 {
-		s = s[:i] + "," + s[i:]
-	}
-	return s
-}
+func fmtGrouped(v float64) string { return numfmt.Grouped(v, 0) }
 
 // periods reads time-of-use periods and checks that none overlap.
 func (d *decoder) periods(n *yaml.Node, path string) []econ.Period {

@@ -15,6 +15,7 @@ import (
 	_ "time/tzdata" // zones work on machines without a zoneinfo database
 
 	"wattstage/curves"
+	"wattstage/internal/numfmt"
 )
 
 // maxPreamble is how many non-blank lines before the header are searched
@@ -849,7 +850,7 @@ func (p *reader) build(kept []*row) (*Trend, error) {
 			}
 		}
 		if 2*regular < len(steps) {
-			p.warn(0, "logging steps are irregular: %d of %d equal the median step %s", regular, len(steps), iv)
+			p.warn(0, "logging steps are irregular: %s of %s equal the median step %s", numfmt.Int(regular), numfmt.Int(len(steps)), iv)
 		}
 	}
 	if iv > maxInterval {
@@ -913,7 +914,7 @@ func plural(n int, one, many string) string {
 	if n == 1 {
 		return "1 " + one
 	}
-	return fmt.Sprintf("%d %s", n, many)
+	return numfmt.Int(n) + " " + many
 }
 
 // lineWords writes "line 7" or "lines 7, 9 …".
@@ -944,7 +945,7 @@ func (p *reader) addGap(from, to time.Time) {
 
 func (p *reader) finalWarnings(tr *Trend) {
 	if p.rep.Dropped > 0 {
-		p.warn(0, "%d of %d rows dropped: %s", p.rep.Dropped, p.rep.Rows, p.rep.Summary())
+		p.warn(0, "%s of %s rows dropped: %s", numfmt.Int(p.rep.Dropped), numfmt.Int(p.rep.Rows), p.rep.Summary())
 	}
 	if n := p.rep.Count(Duplicate); n > 0 && p.spec.TimeZone == "" && !p.zoned {
 		p.warn(p.rep.LinesOf(Duplicate)[0], "%d duplicate stamps: if the log is local time with daylight saving, give the trend's time zone", n)

@@ -8,6 +8,7 @@ import (
 	"time"
 
 	"wattstage/curves"
+	"wattstage/internal/numfmt"
 )
 
 // Reason says what was wrong with a row. Rows with a dropping reason are not
@@ -150,7 +151,7 @@ func (r *Report) Summary() string {
 		}
 		parts = append(parts, fmt.Sprintf("%d %s (%s)", is.Count, is.Reason, detail))
 	}
-	s := fmt.Sprintf("%d rows, %d kept, %d dropped", r.Rows, r.Kept, r.Dropped)
+	s := fmt.Sprintf("%s rows, %s kept, %s dropped", numfmt.Int(r.Rows), numfmt.Int(r.Kept), numfmt.Int(r.Dropped))
 	if len(parts) > 0 {
 		s += ": " + strings.Join(parts, "; ")
 	}

@@ -9,6 +9,8 @@ import (
 	"unicode/utf8"
 
 	"github.com/xuri/excelize/v2"
+
+	"wattstage/internal/numfmt"
 )
 
 // book is a workbook being built: the excelize file, its style cache and
@@ -391,23 +393,7 @@ func formatShown(v float64, style string) string {
 	if strings.HasSuffix(style, "sci") {
 		return strconv.FormatFloat(v, 'E', 3, 64)
 	}
-	s := strconv.FormatFloat(math.Abs(v), 'f', d, 64)
-	intPart, frac, _ := strings.Cut(s, ".")
-	var b strings.Builder
-	if v < 0 {
-		b.WriteByte('-')
-	}
-	for i, c := range intPart {
-		if i > 0 && (len(intPart)-i)%3 == 0 {
-			b.WriteByte(',')
-		}
-		b.WriteRune(c)
-	}
-	if frac != "" {
-		b.WriteByte('.')
-		b.WriteString(frac)
-	}
-	return b.String()
+	return numfmt.Grouped(v, d)
 }
 
 // styleDecimals reads the decimals from a numeric style name such as "d2"
