@@ -118,7 +118,7 @@ func setpointsRun(opts *SetpointsOptions) error {
 	heading(out, "Staging setpoints (adjustable starting values)")
 	writeSetpointTables(out, sp)
 	fmt.Fprintf(out, "Flows are rounded to %s %s: the stages draw within %.1f %% of each other across each near-equal band.\n",
-		num(sp.Resolution(), 0), p.Units.FlowUnit(), 100*optimize.NearEqualTolerance)
+		sp.FlowText(sp.Resolution()), p.Units.FlowUnit(), 100*optimize.NearEqualTolerance)
 	if len(sp.Defaults) > 0 {
 		fmt.Fprintln(out)
 		for _, d := range sp.Defaults {

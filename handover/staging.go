@@ -30,9 +30,8 @@ func Staging(res *study.Result) workbook.Staging {
 	for i, t := range sp.Transitions {
 		up, down := rows[2*i], rows[2*i+1]
 		note := fmt.Sprintf("up set by %s; down set by %s", t.Up.Limit, t.Down.Limit)
-		if up[6] != nil {
-			note += fmt.Sprintf("; stages within %.1f %% of each other from %s to %s %s", 100*optimize.NearEqualTolerance,
-				study.Grouped(val(up[6])), study.Grouped(val(up[7])), p.Units.FlowUnit())
+		if t.Band != nil {
+			note += fmt.Sprintf("; stages within %.1f %% of each other %s", 100*optimize.NearEqualTolerance, sp.BandWords(*t.Band))
 		}
 		st.Rows = append(st.Rows, workbook.StagingRow{From: sum(t.Lower), To: sum(t.Upper), Units: optimize.StartStop(p, t.Start, t.Stop),
 			UpSpeed: val(up[4]), UpFlow: val(up[3]), UpDelay: t.Up.Delay.Minutes(),

@@ -1,6 +1,7 @@
 package optimize
 
 import (
+	"fmt"
 	"math"
 
 	"wattstage/curves"
@@ -45,4 +46,36 @@ func (sp *Setpoints) BandSetpoints(b NearEqual) (lo, hi float64) {
 		lo, hi = mid, mid
 	}
 	return lo, hi
+}
+
+// flowDecimals is the number of decimals that writes a flow at the
+// sequence's resolution: 0 for steps of 1 and up, 1 for 0.5 or 0.2 …
+func (sp *Setpoints) flowDecimals() int {
+	return max(0, int(math.Ceil(-math.Log10(sp.Resolution())-1e-9)))
+}
+
+// FlowText writes a flow setpoint (display units, at the resolution) with
+// as many decimals as the resolution needs: "2,480", or "12.4" on a plant
+// whose steps are 0.2 L/s.
+func (sp *Setpoints) FlowText(v float64) string { return thousands(v, sp.flowDecimals()) }
+
+// BandWords writes a near-equal band at the sequence's resolution for a
+// sentence: "from 2,200 to 2,560 gpm", or, where it rounds to one value,
+// "only within one 20 gpm step of 840 gpm".
+func (sp *Setpoints) BandWords(b NearEqual) string {
+	lo, hi := sp.BandSetpoints(b)
+	fu := sp.Plant.Units.FlowUnit()
+	if lo == hi {
+		return fmt.Sprintf("only within one %s %s step of %s %s", sp.FlowText(sp.Resolution()), fu, sp.FlowText(lo), fu)
+	}
+	return fmt.Sprintf("from %s to %s %s", sp.FlowText(lo), sp.FlowText(hi), fu)
+}
+
+// bandCell writes a near-equal band for a table cell: "2,200–2,560", or
+// "840 only" where it rounds to one value.
+func (sp *Setpoints) bandCell(lo, hi float64) string {
+	if lo == hi {
+		return sp.FlowText(lo) + " only"
+	}
+	return sp.FlowText(lo) + "–" + sp.FlowText(hi)
 }

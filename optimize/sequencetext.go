@@ -155,8 +155,8 @@ func dutyTags(m plant.Model) string {
 func (sp *Setpoints) transitionWords(t Transition) string {
 	u := sp.Plant.Units
 	fu := u.FlowUnit()
-	flowUp := fmt.Sprintf("the plant flow stays above %s %s", thousands(sp.FlowSetpoint(t.Up.Flow), 0), fu)
-	flowDown := fmt.Sprintf("the plant flow stays below %s %s", thousands(sp.FlowSetpoint(t.Down.Flow), 0), fu)
+	flowUp := fmt.Sprintf("the plant flow stays above %s %s", sp.FlowText(sp.FlowSetpoint(t.Up.Flow)), fu)
+	flowDown := fmt.Sprintf("the plant flow stays below %s %s", sp.FlowText(sp.FlowSetpoint(t.Down.Flow)), fu)
 	speedUp := fmt.Sprintf("the speed stays above %.0f %%", 100*t.Up.Speed)
 	speedDown := fmt.Sprintf("the speed stays below %.0f %%", 100*t.Down.Speed)
 	up, down := flowUp, flowDown
@@ -171,12 +171,16 @@ func (sp *Setpoints) transitionWords(t Transition) string {
 		t.To, t.From, down, minutes(t.Down.Delay), sp.changeWords(t.Stop, t.Start))
 	if bd := t.Band; bd != nil {
 		lo, hi := sp.BandSetpoints(*bd)
-		s += fmt.Sprintf(" Stages %d and %d draw within %.1f %% of each other from %s to %s %s", t.From, t.To, 100*NearEqualTolerance,
-			thousands(lo, 0), thousands(hi, 0), fu)
-		if !math.IsNaN(bd.LowSpeed) && !math.IsNaN(bd.HighSpeed) {
-			s += fmt.Sprintf(" (speed %.0f–%.0f %%)", 100*bd.LowSpeed, 100*bd.HighSpeed)
+		narrow := lo == hi // the band lies within one step of the resolution of lo
+		s += fmt.Sprintf(" Stages %d and %d draw within %.1f %% of each other %s", t.From, t.To, 100*NearEqualTolerance, sp.BandWords(*bd))
+		if lo, hi := math.Round(100*bd.LowSpeed), math.Round(100*bd.HighSpeed); lo == hi {
+			s += fmt.Sprintf(" (speed %.0f %%)", lo)
+		} else if !math.IsNaN(lo) && !math.IsNaN(hi) {
+			s += fmt.Sprintf(" (speed %.0f–%.0f %%)", lo, hi)
 		}
 		switch {
+		case t.Up.Limit == LimitCrossover && narrow:
+			s += fmt.Sprintf(": the stage-up value is their crossover; a step to either side one stage draws over %.1f %% less, so keep it there.", 100*NearEqualTolerance)
 		case t.Up.Limit == LimitCrossover:
 			s += ": the stage-up value is their crossover, inside that band, and may move within it for stability at little cost."
 		case bd.Contains(t.Up.Flow):

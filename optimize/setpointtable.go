@@ -36,16 +36,20 @@ func (sp *Setpoints) TextTables() (stages, changes [][]string) {
 	stages = append(stages, []string{"stage", "runs", "from (" + fu + ")", "to (" + fu + ")", "speed (% rated)"})
 	for i, st := range sp.Stages {
 		r := tables[1].Rows[i]
-		stages = append(stages, []string{fmt.Sprint(st.Number), fmt.Sprint(r[1]), thousands(r[2].(float64), 0), thousands(r[3].(float64), 0),
+		stages = append(stages, []string{fmt.Sprint(st.Number), fmt.Sprint(r[1]), sp.FlowText(r[2].(float64)), sp.FlowText(r[3].(float64)),
 			speedRange(st.LowSpeed, st.HighSpeed)})
 	}
 	changes = append(changes, []string{"change", "signal", "flow (" + fu + ")", "speed (%)", "delay (min)", "near-equal band (" + fu + ")", "set by", "action"})
 	for _, r := range tables[0].Rows {
 		band := "–"
 		if r[6] != nil {
-			band = thousands(r[6].(float64), 0) + "–" + thousands(r[7].(float64), 0)
+			band = sp.bandCell(r[6].(float64), r[7].(float64))
 		}
-		changes = append(changes, []string{fmt.Sprint(r[0]), fmt.Sprint(r[2]), cellNum(r[3], 0), cellNum(r[4], 0), fmt.Sprintf("%.0f", r[5]), band, fmt.Sprint(r[8]), fmt.Sprint(r[1])})
+		flow := "–"
+		if f, ok := r[3].(float64); ok {
+			flow = sp.FlowText(f)
+		}
+		changes = append(changes, []string{fmt.Sprint(r[0]), fmt.Sprint(r[2]), flow, cellNum(r[4], 0), fmt.Sprintf("%.0f", r[5]), band, fmt.Sprint(r[8]), fmt.Sprint(r[1])})
 	}
 	return stages, changes
 }

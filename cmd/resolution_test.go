@@ -1,0 +1,47 @@
+package cmd_test
+
+import (
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+)
+
+// On a plant whose 1 % of design flow is below one display unit the
+// sequence's flow steps are fractions (40 m³/h design: 0.2 m³/h steps),
+// and every setpoint must keep the decimal the step needs: the text once
+// wrote "rounded to 0 m³/h" and stage-up flows cut to whole numbers.
+func TestSetpointsKeepTheStepsDecimals(t *testing.T) {
+	b, err := os.ReadFile("../examples/heating-water.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := strings.Replace(string(b), "  design_flow: 100 ", "  design_flow: 40 ", 1)
+	if doc == string(b) {
+		t.Fatal("the example's design_flow line was not found")
+	}
+	path := filepath.Join(t.TempDir(), "small.yaml")
+	if err := os.WriteFile(path, []byte(doc), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	args := []string{"setpoints", path}
+	r := run(t, args...)
+	if r.code != 0 {
+		t.Fatalf("%s", r.describe(args))
+	}
+	if !strings.Contains(r.out, "Flows are rounded to 0.2 m³/h") {
+		t.Errorf("the resolution is not written as 0.2 m³/h:\n%s", r.out)
+	}
+	// Every flow the sequence of operation names is at 0.2 m³/h steps.
+	re := regexp.MustCompile(`stays (above|below) ([0-9.,]+) m³/h`)
+	m := re.FindAllStringSubmatch(r.out, -1)
+	if len(m) < 2 {
+		t.Fatalf("no stage-up and stage-down flows found:\n%s", r.out)
+	}
+	for _, g := range m {
+		if !regexp.MustCompile(`^[0-9,]+\.[02468]$`).MatchString(g[2]) {
+			t.Errorf("flow %q is not written at 0.2 m³/h steps", g[2])
+		}
+	}
+}
