@@ -1,7 +1,9 @@
 package optimize
 
 import (
+	"cmp"
 	"math"
+	"slices"
 
 	"wattstage/curves"
 )
@@ -44,6 +46,34 @@ func (s *Solver) mayRise(cnt []int, Q, hr float64) bool {
 		sum += float64(n) * q
 	}
 	return sum >= Q*(1-1e-9)
+}
+
+// fewestMayServe is the fewest running units that may serve a load, or 0
+// where no number of them can: the flows the units give at their top
+// speeds at the required head only fall as the head rises (mayRise), so
+// fewer units than the least number whose largest such flows reach the
+// pumped flow cannot serve it. Solves by running-unit count start there
+// instead of proving each smaller count short.
+func (s *Solver) fewestMayServe(load curves.Flow) int {
+	Q := float64(max(load, s.plant.MinFlow))
+	hr := float64(s.plant.RequiredHead(load))
+	tops := s.topBuf[:0]
+	for i, u := range s.units {
+		if q, ok := u.flowAt(u.smax, hr); ok && q > 0 {
+			for range s.plant.Models[i].Count {
+				tops = append(tops, q)
+			}
+		}
+	}
+	s.topBuf = tops
+	slices.SortFunc(tops, func(a, b float64) int { return cmp.Compare(b, a) })
+	sum := 0.0
+	for n, q := range tops {
+		if sum += q; sum >= Q*(1-1e-9) {
+			return n + 1
+		}
+	}
+	return 0
 }
 
 // lowestFeasibleHeadBound returns the lowest header head above the

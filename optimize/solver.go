@@ -79,7 +79,8 @@ type Solver struct {
 	leafCnt  []int
 	deferred []int32 // items of vectors that need a higher head (branchAndBound)
 	corners  []*tableEnd
-	bounded  bool // s.mb holds the bounds of the solve in progress
+	topBuf   []float64 // scratch: fewestMayServe
+	bounded  bool      // s.mb holds the bounds of the solve in progress
 	// evalLimit stops a branch and bound after that many vectors evaluated
 	// (0: no limit); closeVectors sets it.
 	evalLimit   int

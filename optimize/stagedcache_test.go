@@ -116,3 +116,32 @@ func TestSequencedCacheChangesNothing(t *testing.T) {
 		}
 	}
 }
+
+// The solves by running-unit count start at fewestMayServe: no smaller
+// count serves the load (so starting there changes no result), and where
+// it says none can, no count does. Checked with every unit on a drive and
+// all across the line (the throttled strategy's variant), two sizes.
+func TestFewestMayServeSkipsOnlyShortCounts(t *testing.T) {
+	base := testPlant(t, testModel(t, "big", 3, 1, curves.DOEDrive{}), testModel(t, "small", 2, 0.6, curves.DOEDrive{}))
+	for _, p := range []*plant.Plant{base, FixedVariant(base)} {
+		s := New(p, Options{})
+		skipped := 0
+		for k := range 60 {
+			q := p.DesignFlow * curves.Flow(0.02+2.0*float64(k)/59)
+			n0 := s.fewestMayServe(q)
+			top := 5
+			if n0 > 0 {
+				top = n0 - 1
+			}
+			for n := 1; n <= top; n++ {
+				skipped++
+				if r := s.SolveWith(q, Constraint{Total: n}); r.Status == Served {
+					t.Errorf("%s, load %.4g m³/s: %d units serve it, below the %d fewestMayServe gives", p.Models[0].Drive, float64(q), n, n0)
+				}
+			}
+		}
+		if skipped == 0 {
+			t.Errorf("no count was skipped: the check says nothing")
+		}
+	}
+}

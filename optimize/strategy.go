@@ -205,7 +205,11 @@ func (s *Staged) solveKey(k stagedKey) Result {
 func (s *Staged) fewest(c *SolveCache[stagedKey], load curves.Flow) (Result, int) {
 	var first *Result
 	firstN := 0
-	for n := 1; n <= s.total; n++ {
+	n0 := s.solver.fewestMayServe(load)
+	if n0 == 0 {
+		n0 = s.total + 1 // none serves it
+	}
+	for n := n0; n <= s.total; n++ {
 		r := s.solveN(c, load, n)
 		if r.Status != Served {
 			continue
@@ -358,7 +362,11 @@ func NewThrottled(label string, p *plant.Plant) *Throttled {
 func (t *Throttled) Name() string { return t.Label }
 
 func (t *Throttled) solve(load curves.Flow) Result {
-	for n := 1; n <= t.total; n++ {
+	n0 := t.solver.fewestMayServe(load)
+	if n0 == 0 {
+		return t.solver.Solve(load) // none serves it: the reason why
+	}
+	for n := n0; n <= t.total; n++ {
 		if r := t.solver.SolveWith(load, Constraint{Total: n}); r.Status == Served {
 			return r
 		}
