@@ -8,4 +8,7 @@ import (
 	"wattstage/cmd"
 )
 
-func main() { os.Exit(cmd.Main(os.Args[1:], os.Stdin, os.Stdout, os.Stderr)) }
+func main() {
+	cmd.LimitMemory()
+	os.Exit(cmd.Main(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+}
