@@ -40,6 +40,7 @@ func TimeLayout(format string) (string, error) {
 	// next to another number field with no separator the stamp cannot be
 	// read one way only ("sHH" as 515: 5 s and 15 h, or 51 s and 5 h).
 	prevNumber, prevVariable := false, false
+	seen := map[string]bool{} // the fields given, by what they mean
 	for i := 0; i < len(rs); {
 		if m, ok := ampmAt(rs[i:]); ok {
 			b.WriteString(m.layout)
@@ -63,7 +64,14 @@ func TimeLayout(format string) (string, error) {
 		if err != nil {
 			return "", fmt.Errorf("profile: time_format %q: %w", format, err)
 		}
-		number := strings.ContainsRune("YMDhHmsf", r) && !(r == 'M' && n >= 3)
+		if what := fieldMeaning(r); what != "" {
+			if seen[what] {
+				// Go's parser would keep the last and drop the first.
+				return "", fmt.Errorf("profile: time_format %q gives the %s twice", format, what)
+			}
+			seen[what] = true
+		}
+		number := strings.ContainsRune("YyMDdhHmsf", r) && !(r == 'M' && n >= 3)
 		variable := number && n == 1
 		if number && (prevVariable || variable && prevNumber) {
 			return "", fmt.Errorf("profile: time_format %q: a one-letter field next to another number needs a separator (write %s%s or put a character between them)",
@@ -78,6 +86,28 @@ func TimeLayout(format string) (string, error) {
 		return "", fmt.Errorf("profile: time_format %q has no year (YYYY or YY)", format)
 	}
 	return layout, nil
+}
+
+// fieldMeaning is what a pattern letter's field gives ("" for T, Z and
+// the AM/PM marker's letters, which fieldLayout rules on).
+func fieldMeaning(r rune) string {
+	switch r {
+	case 'Y', 'y':
+		return "year"
+	case 'M':
+		return "month"
+	case 'D', 'd':
+		return "day"
+	case 'h', 'H':
+		return "hour"
+	case 'm':
+		return "minute"
+	case 's':
+		return "second"
+	case 'f':
+		return "fraction of a second"
+	}
+	return ""
 }
 
 // ampmMarkers are the spellings of the AM/PM field, longest first.

@@ -40,7 +40,11 @@ func TestTimeLayout(t *testing.T) {
 			}
 		})
 	}
-	for _, bad := range []string{"hh:mm", "YYYY-QQ", "DD/MM/YYYY hh:mm xyz"} {
+	// The last two: a day given twice (Go's parser keeps the last), and a
+	// one-letter lower-case day right after a one-letter second (found by
+	// FuzzTimeLayout: "DDMMYYYYHHmmZsd" read 23 Nov 17:45:00 back as 3 Nov
+	// 17:45:02).
+	for _, bad := range []string{"hh:mm", "YYYY-QQ", "DD/MM/YYYY hh:mm xyz", "DD/MM/YYYY hh:mm d", "YYYY-MM-DD hh:mm:sd"} {
 		if l, err := TimeLayout(bad); err == nil {
 			t.Errorf("TimeLayout(%q) = %q, want an error", bad, l)
 		}
