@@ -189,9 +189,6 @@ type stageKey struct {
 // at solves a load in stage k, from the cache c (nil: none) when it was
 // solved before.
 func (q *Sequenced) at(c *SolveCache[stageKey], load curves.Flow, k int) Result {
-	if c == nil {
-		return q.solveStage(stageKey{load, k})
-	}
 	return c.Solve(stageKey{load, k}, q.solveStage)
 }
 

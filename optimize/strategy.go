@@ -187,9 +187,6 @@ type stagedKey struct {
 // sequence re-solves each row with the count it holds, and checks n−1
 // before staging down). A nil cache solves every time (tests compare).
 func (s *Staged) solveN(c *SolveCache[stagedKey], load curves.Flow, n int) Result {
-	if c == nil {
-		return s.solveKey(stagedKey{load, n})
-	}
 	return c.Solve(stagedKey{load, n}, s.solveKey)
 }
 
