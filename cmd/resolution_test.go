@@ -10,8 +10,9 @@ import (
 
 // On a plant whose 1 % of design flow is below one display unit the
 // sequence's flow steps are fractions (40 m³/h design: 0.2 m³/h steps),
-// and every setpoint must keep the decimal the step needs: the text once
-// wrote "rounded to 0 m³/h" and stage-up flows cut to whole numbers.
+// and every setpoint and flow the text names must keep the decimal the step
+// needs: the text once wrote "rounded to 0 m³/h" and cut stage-up and
+// reset flows to whole numbers.
 func TestSetpointsKeepTheStepsDecimals(t *testing.T) {
 	b, err := os.ReadFile("../examples/heating-water.yaml")
 	if err != nil {
@@ -42,6 +43,13 @@ func TestSetpointsKeepTheStepsDecimals(t *testing.T) {
 	for _, g := range m {
 		if !regexp.MustCompile(`^[0-9,]+\.[02468]$`).MatchString(g[2]) {
 			t.Errorf("flow %q is not written at 0.2 m³/h steps", g[2])
+		}
+	}
+	// So is every other flow the text names (the reset's, the minimum
+	// flow's): with the step's one decimal.
+	for _, g := range regexp.MustCompile(`([0-9][0-9.,]*) m³/h`).FindAllStringSubmatch(r.out, -1) {
+		if !strings.Contains(g[1], ".") {
+			t.Errorf("flow %q m³/h is written without the step's decimal", g[1])
 		}
 	}
 }

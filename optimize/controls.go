@@ -73,7 +73,7 @@ func (sp *Setpoints) PointsList() []IOPoint {
 	}
 	if p.MinFlow > 0 {
 		out = append(out, IOPoint{Name: "Bypass valve", Kind: "AO", Unit: "%",
-			Description: fmt.Sprintf("holds the plant minimum flow of %s", fmtFlowWords(u, p.MinFlow))})
+			Description: fmt.Sprintf("holds the plant minimum flow of %s", sp.flowWords(p.MinFlow))})
 	}
 	for _, m := range p.Models {
 		for k := 0; k < m.Installed(); k++ {

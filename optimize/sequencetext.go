@@ -95,7 +95,7 @@ func (sp *Setpoints) speedLoopWords() string {
 	if !ok {
 		curve := "static head plus friction"
 		if fc, ok := p.System.(curves.FixedCurve); ok {
-			curve = fmt.Sprintf("%s static head plus friction rising to %s at %s", u.FormatHead(fc.Static), u.FormatHead(fc.DesignHead), fmtFlowWords(u, fc.DesignFlow))
+			curve = fmt.Sprintf("%s static head plus friction rising to %s at %s", u.FormatHead(fc.Static), u.FormatHead(fc.DesignHead), sp.flowWords(fc.DesignFlow))
 		}
 		return fmt.Sprintf("Speed: there is no pressure loop. The system is a fixed curve (%s); the speed loop holds the plant flow the chillers or the process need, read at the plant flow meter, with %s. The curve then sets the head.",
 			curve, speeds)
@@ -107,17 +107,20 @@ func (sp *Setpoints) speedLoopWords() string {
 	}
 	_, reset, proposed := sp.DPSchedule()
 	s := fmt.Sprintf("Speed: a differential-pressure loop holds the setpoint at the sensor (%s), sending %s. Setpoint %s at and above %s",
-		where, speeds, u.FormatPressure(dp.ControlHead, rho), fmtFlowWords(u, reset.HighFlow))
+		where, speeds, u.FormatPressure(dp.ControlHead, rho), sp.flowWords(reset.HighFlow))
 	s += fmt.Sprintf(", reset linearly to %s at and below %s (the schedule table lists it against load).",
-		u.FormatPressure(reset.LowHead, rho), fmtFlowWords(u, reset.LowFlow))
+		u.FormatPressure(reset.LowHead, rho), sp.flowWords(reset.LowFlow))
 	if proposed {
 		s += " The plant file gives no reset: this one is proposed as a starting value and is not in the energy figures; replace it with a reset on valve position (trim the setpoint until the valve that needs the most pressure is nearly open) where the controls allow it."
 	}
 	return s
 }
 
-func fmtFlowWords(u curves.UnitSystem, q curves.Flow) string {
-	return fmt.Sprintf("%s %s", thousands(u.FlowOut(q), 0), u.FlowUnit())
+// flowWords writes a flow for the sequence's sentences, with the decimals
+// of its setpoints (FlowText).
+func (sp *Setpoints) flowWords(q curves.Flow) string {
+	u := sp.Plant.Units
+	return sp.FlowText(u.FlowOut(q)) + " " + u.FlowUnit()
 }
 
 // stageWords names the units a stage runs: by model, lead and lag pumps of
@@ -230,7 +233,6 @@ func unitsOf(m plant.Model, n int, which string) string {
 // one, else the next available unit, and what the rest can do.
 func (sp *Setpoints) failureWords() string {
 	p := sp.Plant
-	u := p.Units
 	s := "Failure response: on a pump or drive fault, or loss of proof of flow, start the next available duty pump of the same model at once, without the delay"
 	var standby []string
 	for _, m := range p.Models {
@@ -262,7 +264,7 @@ func (sp *Setpoints) failureWords() string {
 		sf = " (into the motor service factor: confirm with the motor manufacturer that this is acceptable for the duration of the outage)"
 	}
 	return s + fmt.Sprintf(" With one %s out of service the remaining pumps %s: they deliver at most %s on the system curve (%.0f %% of design flow), with motors at up to %.0f %% of rated load%s.",
-		o.Removed, serves, fmtFlowWords(u, o.MaxFlow), 100*float64(o.MaxFlow/p.DesignFlow), 100*loads, sf)
+		o.Removed, serves, sp.flowWords(o.MaxFlow), 100*float64(o.MaxFlow/p.DesignFlow), 100*loads, sf)
 }
 
 // rotationWords is the lead/lag rotation by tag.
@@ -291,17 +293,16 @@ func (sp *Setpoints) rotationWords() string {
 // limitWords are the limits the values rest on.
 func (sp *Setpoints) limitWords() []string {
 	p := sp.Plant
-	u := p.Units
 	var out []string
 	for _, m := range p.Models {
-		s := fmt.Sprintf("%s minimum flow %s at rated speed", m.Name, fmtFlowWords(u, m.MinFlow))
+		s := fmt.Sprintf("%s minimum flow %s at rated speed", m.Name, sp.flowWords(m.MinFlow))
 		if m.Drive.Variable() {
 			s += fmt.Sprintf(", minimum speed %.0f %%", 100*m.MinSpeed)
 		}
 		out = append(out, s)
 	}
 	if p.MinFlow > 0 {
-		out = append(out, fmt.Sprintf("the bypass holds the plant minimum flow of %s", fmtFlowWords(u, p.MinFlow)))
+		out = append(out, fmt.Sprintf("the bypass holds the plant minimum flow of %s", sp.flowWords(p.MinFlow)))
 	}
 	return out
 }
