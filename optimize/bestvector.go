@@ -58,6 +58,7 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*sta
 	// gives up early only once a best state is known. Every vector whose
 	// bound is within the final threshold is still evaluated.
 	deferred := s.deferred[:0]
+	limited := false // evalLimit reached
 	for len(s.heap) > 0 {
 		it := b.pop()
 		if it.bound > thr {
@@ -71,9 +72,12 @@ func (s *Solver) branchAndBound(Q, hr float64, c Constraint, keep float64) (*sta
 			deferred = append(deferred, int32(it.seq))
 			continue
 		}
-		if eval(it) {
+		if limited = eval(it); limited {
 			break
 		}
+	}
+	if limited {
+		deferred = deferred[:0]
 	}
 	slices.SortFunc(deferred, func(x, y int32) int {
 		return cmp.Or(cmp.Compare(s.items[x].bound, s.items[y].bound), cmp.Compare(x, y))
