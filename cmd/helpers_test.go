@@ -92,3 +92,23 @@ func isWorkbook(t *testing.T, path string) bool {
 	}
 	return bytes.HasPrefix(b, []byte("PK\x03\x04"))
 }
+
+// exampleWith writes a copy of a shipped example with its first from
+// replaced by to into a temporary folder and returns its path; what names
+// the line in the failure message.
+func exampleWith(t *testing.T, example, from, to, what string) string {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join("..", "examples", example))
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := strings.Replace(string(b), from, to, 1)
+	if doc == string(b) {
+		t.Fatalf("the example's %s line was not found", what)
+	}
+	path := filepath.Join(t.TempDir(), example)
+	if err := os.WriteFile(path, []byte(doc), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}

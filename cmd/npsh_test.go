@@ -1,8 +1,6 @@
 package cmd_test
 
 import (
-	"os"
-	"path/filepath"
 	"strings"
 	"testing"
 )
@@ -12,18 +10,7 @@ import (
 // small pump's NPSHr there), plan lists the short points with their units
 // and the study warns of them.
 func TestPlanListsNPSHShortPoints(t *testing.T) {
-	b, err := os.ReadFile("../examples/condenser-water.yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	doc := strings.Replace(string(b), "  static_head: 1.5 ", "  static_head: -4 ", 1)
-	if doc == string(b) {
-		t.Fatal("the example's suction.static_head line was not found")
-	}
-	path := filepath.Join(t.TempDir(), "lift.yaml")
-	if err := os.WriteFile(path, []byte(doc), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	path := exampleWith(t, "condenser-water.yaml", "  static_head: 1.5 ", "  static_head: -4 ", "suction.static_head")
 	args := []string{"plan", path}
 	r := run(t, args...)
 	if r.code != 0 {

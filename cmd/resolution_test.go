@@ -1,8 +1,6 @@
 package cmd_test
 
 import (
-	"os"
-	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
@@ -14,18 +12,7 @@ import (
 // needs: the text once wrote "rounded to 0 m³/h" and cut stage-up and
 // reset flows to whole numbers.
 func TestSetpointsKeepTheStepsDecimals(t *testing.T) {
-	b, err := os.ReadFile("../examples/heating-water.yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	doc := strings.Replace(string(b), "  design_flow: 100 ", "  design_flow: 40 ", 1)
-	if doc == string(b) {
-		t.Fatal("the example's design_flow line was not found")
-	}
-	path := filepath.Join(t.TempDir(), "small.yaml")
-	if err := os.WriteFile(path, []byte(doc), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	path := exampleWith(t, "heating-water.yaml", "  design_flow: 100 ", "  design_flow: 40 ", "design_flow")
 	args := []string{"setpoints", path}
 	r := run(t, args...)
 	if r.code != 0 {
